@@ -84,3 +84,19 @@ export interface DecodedImage {
   readonly pixelSpacingMm?: readonly [number, number]; // [row spacing, column spacing]
   readonly synthetic?: boolean;
 }
+
+/**
+ * Read access to a folder (a sample set or a model folder), shared by the CLI (disk) and the
+ * browser (directory picker, file input, or bundled demo served by the page). Paths use '/'.
+ */
+export interface FileSource {
+  readonly label: string; // shown in messages, e.g. the folder path
+  readBytes(path: string): Promise<Uint8Array>;
+  readText(path: string): Promise<string>;
+  exists(path: string): Promise<boolean>;
+}
+
+/** Write access to an output folder. */
+export interface FileSink {
+  writeFile(path: string, data: Uint8Array | string): Promise<void>;
+}

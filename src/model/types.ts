@@ -21,8 +21,6 @@ export interface ModelManifest {
       readonly std: readonly number[]; // one per channel
       readonly resize: ResizePolicy;
       readonly pad_value?: number; // in [0, 1] units, for letterbox; default 0
-      /** Optional extra input channels the model expects, appended after the image channels. */
-      readonly coordinate_channels?: boolean;
     };
     readonly output: {
       readonly name: string;
