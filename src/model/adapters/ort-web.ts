@@ -1,0 +1,52 @@
+import type { InferenceEngine, InferenceSession, NamedTensor } from '../types';
+import { checkFeed, toNamedTensor } from './ort-tensors';
+
+type OrtWeb = typeof import('onnxruntime-web/wasm');
+
+/**
+ * An InferenceEngine over onnxruntime-web (WASM backend), for the browser and for Node parity
+ * tests. The module is imported dynamically: a static import breaks its thread workers in a Vite
+ * build. `wasmPaths` is the folder (URL prefix, ending in '/') our own build serves the .wasm/.mjs
+ * files from; in Node, point it at node_modules/onnxruntime-web/dist/ if the default lookup fails.
+ * The runtime's env is global to the page, so the first engine's settings win.
+ */
+export async function createOrtWebEngine({ wasmPaths, threads = 2 }: { wasmPaths?: string; threads?: number } = {}): Promise<InferenceEngine> {
+  if (!Number.isInteger(threads) || threads < 1) {
+    throw new RangeError(`'threads' must be an integer >= 1; got ${threads}`);
+  }
+  const ort: OrtWeb = await import('onnxruntime-web/wasm');
+  if (wasmPaths !== undefined) ort.env.wasm.wasmPaths = wasmPaths;
+  // Threads need cross-origin isolation (SharedArrayBuffer); without it the runtime uses one thread.
+  const isolated = (globalThis as { crossOriginIsolated?: boolean }).crossOriginIsolated;
+  const isNode = typeof (globalThis as { process?: { versions?: { node?: string } } }).process?.versions?.node === 'string';
+  ort.env.wasm.numThreads = isolated || isNode ? threads : 1;
+  return {
+    name: 'onnxruntime-web',
+    async createSession(model) {
+      const session = await ort.InferenceSession.create(model, {
+        executionProviders: ['wasm'],
+        graphOptimizationLevel: 'all',
+      });
+      return wrapSession(ort, session);
+    },
+  };
+}
+
+function wrapSession(ort: OrtWeb, session: import('onnxruntime-web/wasm').InferenceSession): InferenceSession {
+  return {
+    inputNames: [...session.inputNames],
+    outputNames: [...session.outputNames],
+    async run(feeds: Readonly<Record<string, NamedTensor>>) {
+      const ortFeeds: Record<string, import('onnxruntime-web/wasm').Tensor> = {};
+      for (const [name, t] of Object.entries(feeds)) {
+        checkFeed(name, t);
+        ortFeeds[name] = new ort.Tensor(t.type, t.data, t.dims);
+      }
+      const results = await session.run(ortFeeds);
+      const out: Record<string, NamedTensor> = {};
+      for (const [name, t] of Object.entries(results)) out[name] = toNamedTensor(t, `output '${name}'`);
+      return out;
+    },
+    release: () => session.release(),
+  };
+}
