@@ -1,0 +1,158 @@
+/**
+ * `npm run bench`: speed and memory figures, printed as one JSON object on stdout.
+ * - scoring stage: Tessera's core over 1,000 studies x 10 sentences x 196 cells x D=128, and the same
+ *   computation in numpy (Debian python3-numpy) in the same run; ratio = ours / numpy (studies/s).
+ * - image encoder throughput: onnxruntime-web (WASM, 2 threads) over onnxruntime-node (2 threads).
+ * - memory held per 1,000 scored studies.
+ * Absolute times on a shared machine are noise; read the ratios.
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { createRng } from '../../src/core/seeded-random';
+import { computeSimilarity, l2Normalise } from '../../src/core/similarity-matrix';
+import { poolRegions } from '../../src/core/pool-regions';
+import { groundSentence } from '../../src/core/ground-sentence';
+import { computeResizeTransform } from '../../src/core/resize-transform';
+import { gridCellRects } from '../../src/core/grid-geometry';
+import type { ImageRect } from '../../src/core/types';
+import { createNodeFileSource } from '../../src/dataset/node-file-source';
+import { openModelFolder } from '../../src/model/model-folder';
+import { createOrtNodeEngine } from '../../src/model/adapters/ort-node';
+import { createOrtWebEngine } from '../../src/model/adapters/ort-web';
+import { createTokenizerFromJson } from '../../src/model/adapters/hf-tokenizer';
+import type { DecodedImage } from '../../src/dataset/types';
+
+const STUDIES = 1000;
+const SENTENCES = 10;
+const GRID = { h: 14, w: 14 };
+const CELLS = GRID.h * GRID.w;
+const DIM = 128;
+const SIZE = 224;
+
+function makeData(): { cells: Float32Array; sents: Float32Array; boxes: ImageRect[] } {
+  const rng = createRng(2024);
+  const cells = new Float32Array(STUDIES * CELLS * DIM);
+  const sents = new Float32Array(STUDIES * SENTENCES * DIM);
+  for (let i = 0; i < cells.length; i++) cells[i] = rng.normal();
+  for (let i = 0; i < sents.length; i++) sents[i] = rng.normal();
+  const boxes: ImageRect[] = [];
+  for (let i = 0; i < STUDIES * SENTENCES; i++) {
+    const w = 20 + rng.next() * 80;
+    const h = 20 + rng.next() * 80;
+    boxes.push({ x: rng.next() * (SIZE - w), y: rng.next() * (SIZE - h), w, h });
+  }
+  return { cells, sents, boxes };
+}
+
+function benchScoringTs(data: ReturnType<typeof makeData>): { studies_per_s: number; seconds: number; hits: number } {
+  const transform = computeResizeTransform({ width: SIZE, height: SIZE }, { width: SIZE, height: SIZE }, 'stretch');
+  const cellRects = gridCellRects(transform, GRID);
+  const imageSize = { width: SIZE, height: SIZE };
+  const t0 = performance.now();
+  let hits = 0;
+  let sink = 0;
+  for (let i = 0; i < STUDIES; i++) {
+    const cells = l2Normalise(data.cells.subarray(i * CELLS * DIM, (i + 1) * CELLS * DIM), CELLS, DIM);
+    const sents = l2Normalise(data.sents.subarray(i * SENTENCES * DIM, (i + 1) * SENTENCES * DIM), SENTENCES, DIM);
+    const sim = computeSimilarity(sents, SENTENCES, cells, CELLS, DIM);
+    for (let s = 0; s < SENTENCES; s++) {
+      const values = sim.data.subarray(s * CELLS, (s + 1) * CELLS);
+      sink += poolRegions(values, { kind: 'max' });
+      const g = groundSentence({ values, grid: GRID, cells: cellRects, transform, imageSize, boxes: [data.boxes[i * SENTENCES + s]] });
+      if (g.hits.centre) hits++;
+    }
+  }
+  const seconds = (performance.now() - t0) / 1000;
+  if (!Number.isFinite(sink)) throw new Error('non-finite pooled score in the benchmark');
+  return { studies_per_s: STUDIES / seconds, seconds, hits };
+}
+
+function benchScoringNumpy(data: ReturnType<typeof makeData>): Record<string, unknown> | { error: string } {
+  const dir = mkdtempSync(join(tmpdir(), 'tessera-bench-'));
+  const base = join(dir, 'scoring');
+  const all = new Float32Array(data.cells.length + data.sents.length);
+  all.set(data.cells, 0);
+  all.set(data.sents, data.cells.length);
+  writeFileSync(`${base}.bin`, new Uint8Array(all.buffer));
+  writeFileSync(`${base}.json`, JSON.stringify({
+    studies: STUDIES, sentences: SENTENCES, cells: CELLS, dim: DIM, grid_h: GRID.h, grid_w: GRID.w, image_size: SIZE,
+    boxes: data.boxes.flatMap((b) => [b.x, b.y, b.w, b.h]),
+  }));
+  try {
+    const out = execFileSync('/usr/bin/python3', [resolve('tests/bench/scoring-numpy.py'), base], { encoding: 'utf8' });
+    return JSON.parse(out) as Record<string, unknown>;
+  } catch (err) {
+    return { error: `numpy run failed (is Debian python3-numpy installed?): ${(err as Error).message.split('\n')[0]}` };
+  }
+}
+
+function syntheticImage(seed: number, size = 512): DecodedImage {
+  const rng = createRng(seed);
+  const data = new Float32Array(size * size);
+  for (let i = 0; i < data.length; i++) data[i] = rng.next() * 255;
+  return { width: size, height: size, data, format: 'png', bitDepth: 8, valueRange: [0, 255] };
+}
+
+async function benchEncoders(): Promise<Record<string, unknown>> {
+  const dir = ['models/demo-local', 'tests/fixtures/tiny-model'].find((d) => existsSync(join(d, 'tessera-model.json')));
+  if (!dir) return { error: 'no model folder found' };
+  const images = Array.from({ length: 8 }, (_, i) => syntheticImage(i));
+  const timeEngine = async (engine: Awaited<ReturnType<typeof createOrtNodeEngine>>): Promise<number> => {
+    const dual = await openModelFolder(createNodeFileSource(resolve(dir)), engine, { threads: 2, tokenizerFactory: createTokenizerFromJson });
+    for (const im of images.slice(0, 2)) await dual.encodeImage(im); // warm-up
+    const t0 = performance.now();
+    const rounds = 3;
+    for (let r = 0; r < rounds; r++) for (const im of images) await dual.encodeImage(im);
+    const secs = (performance.now() - t0) / 1000;
+    await dual.release();
+    return (rounds * images.length) / secs;
+  };
+  const nodeRate = await timeEngine(await createOrtNodeEngine({ threads: 2 }));
+  const webRate = await timeEngine(await createOrtWebEngine({ threads: 2 }));
+  return { model: dir, images_per_s_ort_node: nodeRate, images_per_s_ort_web: webRate, ratio_web_over_node: webRate / nodeRate };
+}
+
+function benchMemory(data: ReturnType<typeof makeData>): Record<string, unknown> {
+  globalThis.gc?.();
+  const before = process.memoryUsage();
+  // What a run holds per study: normalised cell embeddings for retrieval and one record per sentence.
+  const held: { cells: Float32Array; records: object[] }[] = [];
+  for (let i = 0; i < STUDIES; i++) {
+    const cells = l2Normalise(data.cells.subarray(i * CELLS * DIM, (i + 1) * CELLS * DIM), CELLS, DIM);
+    const records = Array.from({ length: SENTENCES }, (_, s) => ({ study: `s${i}`, sentenceIndex: s, text: `sentence ${s} of study ${i}`, hits: { centre: false, overlap: false, upsampled: false }, chance: { centre: 0.1, overlap: 0.2, upsampled: 0.1 }, boxes: [data.boxes[i * SENTENCES + s]] }));
+    held.push({ cells, records });
+  }
+  const after = process.memoryUsage();
+  const mb = (b: number): number => Math.round((b / 2 ** 20) * 10) / 10;
+  return {
+    studies_held: held.length,
+    heap_plus_buffers_mb_per_1000_studies: mb(after.heapUsed + after.arrayBuffers - before.heapUsed - before.arrayBuffers),
+    rss_mb: mb(after.rss),
+  };
+}
+
+async function main(): Promise<void> {
+  const data = makeData();
+  const ours = benchScoringTs(data);
+  const numpy = benchScoringNumpy(data);
+  const numpyRate = (numpy as { studies_per_s?: number }).studies_per_s;
+  const result = {
+    scoring: {
+      workload: `${STUDIES} studies x ${SENTENCES} sentences x ${CELLS} cells x D=${DIM}`,
+      tessera: ours,
+      numpy,
+      ratio_tessera_over_numpy: numpyRate ? ours.studies_per_s / numpyRate : undefined,
+      note: 'Tessera computes every metric of groundSentence (also upsampled hit, top-k, IoU, laterality); numpy computes the listed subset.',
+    },
+    encoders: await benchEncoders(),
+    memory: benchMemory(data),
+  };
+  process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);
+}
+
+main().catch((err: unknown) => {
+  process.stderr.write(`bench failed: ${(err as Error).stack ?? String(err)}\n`);
+  process.exitCode = 1;
+});
