@@ -59,3 +59,24 @@ export function researchFooter(summary: Pick<ScoreSummary, 'synthetic_set'>): st
     ? 'Research use only; not a medical device. The sample set is synthetic.'
     : 'Research use only; not a medical device.';
 }
+
+/** One CSV field per RFC 4180: quoted when it holds a quote, comma, CR or LF (or edge spaces), quotes doubled. */
+export function csvField(value: string): string {
+  return /[",\r\n]|^\s|\s$/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
+}
+
+/** One CSV record terminated by CRLF, as RFC 4180 specifies. */
+export function csvLine(fields: readonly string[]): string {
+  return fields.map(csvField).join(',') + '\r\n';
+}
+
+/** A CSV cell for a number: 6 significant digits, empty for undefined, NaN or infinities. */
+export function csvNumber(x: number | undefined): string {
+  const r = x === undefined ? undefined : roundSignificant(x);
+  return r === undefined ? '' : String(r);
+}
+
+/** A CSV cell for a flag: 1 or 0, empty for undefined. */
+export function csvFlag(x: boolean | undefined): string {
+  return x === undefined ? '' : x ? '1' : '0';
+}
