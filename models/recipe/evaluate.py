@@ -1,0 +1,163 @@
+"""Evaluates a checkpoint on a held-out sample set: pointing, its chance level, and retrieval.
+
+  /usr/bin/python3 models/recipe/evaluate.py --checkpoint /tmp/demo-local.pt --set /tmp/phantom-eval \
+      --out /tmp/demo-local-eval.json [--untrained --seed 11]
+
+- Pointing (the pointing game; Zhang et al. 2018, "Top-down neural attention by excitation
+  backprop"): for each localisable positive sentence (one with a reference box, not negated), the
+  cell with the highest cosine similarity is a hit when its centre, mapped back to original image
+  pixels, lies in one of the sentence's boxes. Chance: the share of cell centres inside the boxes.
+- Sentence-to-image recall@1: each such sentence ranks every image of the set by the model's own
+  region pooling (softmax or max over cells; mean-pooled regions for the global model). Strict: the
+  top image is the sentence's own. Text-aware: the top image's report holds the same sentence text
+  (the phantom repeats sentence templates, so strict recall has a ceiling below 1).
+- Report-to-image recall@1: the study score (mean over its non-negated sentences) across studies.
+This is the recipe's own quick check; `tessera score` is the tool's full, independent evaluation.
+"""
+
+import argparse
+import json
+import os
+import sys
+
+import numpy as np
+import torch
+import torch.nn.functional as F
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from nets import DualEncoder  # noqa: E402
+from sample_set import is_negated, load_image, read_sample_set, split_sentences  # noqa: E402
+from wordpiece import WordPieceTokenizer, normalize  # noqa: E402
+
+
+def parse_args(argv):
+    p = argparse.ArgumentParser(description=__doc__, formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument('--checkpoint', required=True)
+    p.add_argument('--set', required=True)
+    p.add_argument('--out', help='JSON file for the figures')
+    p.add_argument('--untrained', action='store_true')
+    p.add_argument('--seed', type=int, default=11)
+    return p.parse_args(argv)
+
+
+def pooled(sim, pooling, temperature):
+    if pooling == 'max':
+        return sim.max(dim=-1).values
+    if pooling == 'softmax':
+        w = torch.softmax(sim / temperature, dim=-1)
+        return (w * sim).sum(dim=-1)
+    raise ValueError(pooling)
+
+
+def main(argv=None):
+    args = parse_args(argv if argv is not None else sys.argv[1:])
+    torch.set_num_threads(2)
+    ckpt = torch.load(args.checkpoint, map_location='cpu')
+    config = ckpt['config']
+    if args.untrained:
+        torch.manual_seed(args.seed)
+    model = DualEncoder(config)
+    if not args.untrained:
+        model.load_state_dict(ckpt['state_dict'])
+    model.eval()
+    tokenizer = WordPieceTokenizer(ckpt['tokenizer']['model']['vocab'])
+    manifest, boxes = read_sample_set(args.set)
+    studies = manifest['studies']
+    size = config['size']
+
+    regions, originals = [], []
+    with torch.no_grad():
+        for start in range(0, len(studies), 32):
+            chunk = studies[start:start + 32]
+            arrs = []
+            for s in chunk:
+                arr, original = load_image(os.path.join(args.set, s['image']), size)
+                arrs.append(arr)
+                originals.append(original)
+            x = (torch.from_numpy(np.stack(arrs)).unsqueeze(1) - config['mean']) / config['std']
+            r = model.image(x)
+            regions.append(F.normalize(r.flatten(2).transpose(1, 2), dim=-1))
+    regions = torch.cat(regions)  # [N, cells, D]
+    gh = gw = size // config['stride_px']
+
+    def embed(texts):
+        out = []
+        with torch.no_grad():
+            for start in range(0, len(texts), 256):
+                ids, mask = tokenizer.batch(texts[start:start + 256], config['max_tokens'])
+                out.append(F.normalize(model.text(torch.tensor(ids), torch.tensor(mask)), dim=-1))
+        return torch.cat(out) if out else torch.zeros(0, config['dim'])
+
+    def score_all(emb):  # [S, D] -> [S, N]
+        if config['objective'] == 'global':
+            g = F.normalize(regions.mean(1), dim=-1)
+            return emb @ g.t()
+        rows = []
+        for start in range(0, len(emb), 64):
+            sim = torch.einsum('sd,bnd->sbn', emb[start:start + 64], regions)
+            rows.append(pooled(sim, config['pooling'], config['pool_temperature']))
+        return torch.cat(rows)
+
+    # Localisable positive sentences: tied to reference boxes by their text, and not negated.
+    items = []
+    for i, s in enumerate(studies):
+        by_text = {}
+        for b in boxes.get(s['id'], []):
+            by_text.setdefault(b['sentence']['text'], []).append(b['box'])
+        for text, bs in by_text.items():
+            if not is_negated(text):
+                items.append((i, text, bs))
+    texts = [t for _, t, _ in items]
+    emb = embed(texts)
+    hits, chances = [], []
+    for k, (i, _, bs) in enumerate(items):
+        sim = regions[i] @ emb[k]
+        best = int(sim.argmax())
+        oh, ow = originals[i]
+        sx, sy = ow / size, oh / size
+        centres = [((c % gw + 0.5) * config['stride_px'] * sx, (c // gw + 0.5) * config['stride_px'] * sy)
+                   for c in range(gh * gw)]
+
+        def inside(pt):
+            return any(b['x'] <= pt[0] < b['x'] + b['w'] and b['y'] <= pt[1] < b['y'] + b['h'] for b in bs)
+
+        hits.append(inside(centres[best]))
+        chances.append(sum(inside(c) for c in centres) / len(centres))
+
+    scores = score_all(emb)
+    own = torch.tensor([i for i, _, _ in items])
+    top = scores.argmax(1)
+    strict = (top == own).float().mean().item() if items else None
+    norm_sentences = [set(normalize(t) for t in split_sentences(s['report'])) for s in studies]
+    aware = float(np.mean([normalize(texts[k]) in norm_sentences[int(top[k])] for k in range(len(items))])) if items else None
+
+    # Study-level report-to-image recall@1 over studies with non-negated sentences.
+    study_sents = [[t for t in split_sentences(s['report']) if not is_negated(t)] for s in studies]
+    flat = [t for ss in study_sents for t in ss]
+    owner = [i for i, ss in enumerate(study_sents) for _ in ss]
+    all_scores = score_all(embed(flat))
+    ids = sorted(set(owner))
+    study_scores = torch.stack([all_scores[[k for k, o in enumerate(owner) if o == i]].mean(0) for i in ids])
+    r2i = (study_scores.argmax(1) == torch.tensor(ids)).float().mean().item()
+    i2r = (study_scores.argmax(0)[ids] == torch.arange(len(ids))).float().mean().item()
+
+    result = {
+        'set': manifest.get('name'), 'studies': len(studies), 'localisable_positive_sentences': len(items),
+        'pointing': round(float(np.mean(hits)), 4) if hits else None,
+        'pointing_hits': int(np.sum(hits)),
+        'chance': round(float(np.mean(chances)), 4) if chances else None,
+        'sentence_to_image_r1_strict': round(strict, 4) if strict is not None else None,
+        'sentence_to_image_r1_text_aware': round(aware, 4) if aware is not None else None,
+        'report_to_image_r1': round(r2i, 4), 'image_to_report_r1': round(i2r, 4),
+        'scored_with': config['pooling'], 'weights': 'random' if args.untrained else 'trained',
+    }
+    print(json.dumps(result, indent=1))
+    if args.out:
+        with open(args.out, 'w', encoding='utf-8') as fh:
+            json.dump(result, fh, indent=1)
+            fh.write('\n')
+    return 0
+
+
+if __name__ == '__main__':
+    sys.exit(main())

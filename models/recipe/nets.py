@@ -1,0 +1,101 @@
+"""The demo dual encoder: a small CNN giving a grid of region embeddings, and a small transformer
+giving one embedding per sentence.
+
+Image encoder: [B, 1, H, W] float32 (already scaled and normalised by the caller, as the manifest
+says) -> [B, D, H/16, W/16]. Two coordinate channels (CoordConv; Liu et al. 2018, "An intriguing
+failing of convolutional neural networks and the CoordConv solution") are made inside the network
+from the input's own shape, so the exported graph still takes 1 channel.
+Text encoder: ids, mask int64 [B, T] -> [B, D], the masked mean of the token states, projected.
+"""
+
+import torch
+from torch import nn
+
+# (kind, out_channels, kernel, stride); the receptive field follows from these alone.
+SMALL_FIELD = [
+    ('conv', 16, 3, 2),
+    ('conv', 32, 3, 2),
+    ('conv', 32, 3, 1),
+    ('conv', 64, 3, 2),
+    ('conv', 64, 3, 1),
+    ('conv', 64, 3, 1),
+    ('conv', 128, 2, 2),
+    ('conv', 128, 1, 1),
+]
+# Three more 3x3 layers at stride 16 widen the field by 3 * 2 * 16 = 96 px.
+WIDE_FIELD = SMALL_FIELD[:7] + [('conv', 128, 3, 1)] * 3 + SMALL_FIELD[7:]
+LAYOUTS = {'small': SMALL_FIELD, 'wide': WIDE_FIELD}
+
+
+def receptive_field(layers):
+    """Theoretical receptive field in input pixels: 1 + sum (k_i - 1) * prod_{j<i} s_j."""
+    field, jump = 1, 1
+    for _, _, k, s in layers:
+        field += (k - 1) * jump
+        jump *= s
+    return field, jump
+
+
+class CoordChannels(nn.Module):
+    """Appends two channels, x and y of each pixel centre in [-1, 1], computed from the input's shape."""
+
+    def forward(self, x):
+        b, _, h, w = x.shape
+        ys = (torch.arange(h, dtype=x.dtype, device=x.device) + 0.5) * (2.0 / h) - 1.0
+        xs = (torch.arange(w, dtype=x.dtype, device=x.device) + 0.5) * (2.0 / w) - 1.0
+        yy = ys.view(1, 1, -1, 1).expand(b, 1, h, w)
+        xx = xs.view(1, 1, 1, -1).expand(b, 1, h, w)
+        return torch.cat([x, xx, yy], dim=1)
+
+
+class ImageEncoder(nn.Module):
+    def __init__(self, field='small', dim=128, in_channels=1, coords=True):
+        super().__init__()
+        self.layers_spec = LAYOUTS[field]
+        self.coords = CoordChannels() if coords else None
+        blocks = []
+        c = in_channels + (2 if coords else 0)
+        for _, out, k, s in self.layers_spec:
+            pad = (k - 1) // 2 if k % 2 == 1 else 0
+            blocks += [nn.Conv2d(c, out, k, stride=s, padding=pad, bias=False), nn.BatchNorm2d(out), nn.ReLU(inplace=True)]
+            c = out
+        self.body = nn.Sequential(*blocks)
+        self.proj = nn.Conv2d(c, dim, 1)
+        self.field_px, self.stride_px = receptive_field(self.layers_spec)
+
+    def forward(self, image):
+        x = self.coords(image) if self.coords is not None else image
+        return self.proj(self.body(x))
+
+
+class TextEncoder(nn.Module):
+    def __init__(self, vocab_size, dim=128, width=128, layers=2, heads=4, max_tokens=32, dropout=0.1):
+        super().__init__()
+        self.max_tokens = max_tokens
+        self.tok = nn.Embedding(vocab_size, width)
+        self.pos = nn.Embedding(max_tokens, width)
+        layer = nn.TransformerEncoderLayer(width, heads, dim_feedforward=2 * width, dropout=dropout,
+                                           batch_first=True, norm_first=True)
+        # enable_nested_tensor=False keeps the plain path, which torch 1.13 can export to ONNX.
+        self.encoder = nn.TransformerEncoder(layer, layers, enable_nested_tensor=False)
+        self.norm = nn.LayerNorm(width)
+        self.proj = nn.Linear(width, dim)
+
+    def forward(self, ids, mask):
+        t = ids.shape[1]
+        positions = torch.arange(t, device=ids.device).unsqueeze(0)
+        h = self.tok(ids) + self.pos(positions)
+        h = self.encoder(h, src_key_padding_mask=mask == 0)
+        h = self.norm(h)
+        m = mask.unsqueeze(-1).to(h.dtype)
+        pooled = (h * m).sum(1) / m.sum(1).clamp(min=1.0)
+        return self.proj(pooled)
+
+
+class DualEncoder(nn.Module):
+    def __init__(self, config):
+        super().__init__()
+        self.config = dict(config)
+        self.image = ImageEncoder(config['field'], config['dim'], 1, config['coords'])
+        self.text = TextEncoder(config['vocab_size'], config['dim'], max_tokens=config['max_tokens'])
+
