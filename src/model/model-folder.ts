@@ -193,8 +193,9 @@ export async function probeModel(m: LoadedModelFolder, now: () => number = () =>
   const textMs = now() - t0;
   const textTensor = textOut?.[manifest.text.output.name];
   if (textOut) problems.push(...checkTextOutput(manifest, textTensor, enc.dims[0], enc.dims[1]));
-  const dImage = embeddingDimOf(imageTensor?.dims, manifest.image.output.layout === 'BDHW' ? 1 : 2);
-  const dText = embeddingDimOf(textTensor?.dims, manifest.text.output.kind === 'sentence' ? 1 : 2);
+  // D is compared only when each output has the rank its declared layout gives, else its axis is unknown.
+  const dImage = manifest.image.output.layout === 'BDHW' ? embeddingDimOf(imageTensor?.dims, 4, 1) : embeddingDimOf(imageTensor?.dims, 3, 2);
+  const dText = manifest.text.output.kind === 'sentence' ? embeddingDimOf(textTensor?.dims, 2, 1) : embeddingDimOf(textTensor?.dims, 3, 2);
   if (dImage !== undefined && dText !== undefined && dImage !== dText) {
     problems.push({
       file: MANIFEST_FILE, path: 'embedding_dim', expected: 'the same D from both encoders',
@@ -214,8 +215,8 @@ export async function probeModel(m: LoadedModelFolder, now: () => number = () =>
   };
 }
 
-function embeddingDimOf(dims: readonly number[] | undefined, axis: number): number | undefined {
-  return dims !== undefined && dims.length > axis ? dims[axis] : undefined;
+function embeddingDimOf(dims: readonly number[] | undefined, rank: number, axis: number): number | undefined {
+  return dims !== undefined && dims.length === rank ? dims[axis] : undefined;
 }
 
 async function runOrProblem(session: InferenceSession, feeds: Parameters<InferenceSession['run']>[0], file: string, problems: Problem[]) {
