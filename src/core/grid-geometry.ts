@@ -25,7 +25,9 @@ export function cellIndexToRowCol(grid: GridShape, cellIndex: number): { row: nu
 // same expression for their shared edge, so the cells tile the visible image exactly.
 function edge(k: number, n: number, inputSize: number, scale: number, offset: number, size: number): number {
   const x = ((k * inputSize) / n - offset) / scale;
-  return x < 0 ? 0 : x > size ? size : x;
+  // Snap float error at the image border (224 / (224 / 300) is 300.00000000000006 or just below).
+  const eps = 1e-9 * size;
+  return x < eps ? 0 : x > size - eps ? size : x;
 }
 
 /**

@@ -35,14 +35,16 @@ export function computeResizeTransform(source: Size, input: Size, policy: Resize
     return { policy, source, input, scaleX: rx, scaleY: ry, offsetX: 0, offsetY: 0 };
   }
   const s = policy === 'letterbox' ? Math.min(rx, ry) : Math.max(rx, ry);
+  // The axis that sets the scale fills the input exactly; its offset is 0 by construction, not by
+  // float rounding (400 * (224 / 400) is 224.00000000000003).
   return {
     policy,
     source,
     input,
     scaleX: s,
     scaleY: s,
-    offsetX: (input.width - source.width * s) / 2,
-    offsetY: (input.height - source.height * s) / 2,
+    offsetX: s === rx ? 0 : (input.width - source.width * s) / 2,
+    offsetY: s === ry ? 0 : (input.height - source.height * s) / 2,
   };
 }
 
