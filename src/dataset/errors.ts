@@ -35,6 +35,8 @@ export interface DatasetErrorOptions {
   readonly item?: string;
   readonly fix: string;
   readonly cause?: unknown;
+  /** Every problem found, when the failure gathers several (e.g. a set.json that cannot be used). */
+  readonly problems?: readonly Problem[];
 }
 
 /** Formats the one-line message used by both DatasetError and Problem: file, item, what, fix. */
@@ -61,8 +63,9 @@ export class DatasetError extends Error {
   readonly item: string;
   readonly fix: string;
   override readonly cause?: unknown;
+  readonly problems: readonly Problem[];
 
-  constructor(what: string, { code, file, item = '', fix, cause }: DatasetErrorOptions) {
+  constructor(what: string, { code, file, item = '', fix, cause, problems }: DatasetErrorOptions) {
     super(formatProblemMessage(file, item, what, fix));
     this.name = 'DatasetError';
     this.code = code;
@@ -70,6 +73,7 @@ export class DatasetError extends Error {
     this.item = item;
     this.fix = fix;
     this.cause = cause;
+    this.problems = problems ?? [{ code, file, item, message: this.message, fix }];
   }
 
   /** The same failure as a Problem record, for lists of problems. */
