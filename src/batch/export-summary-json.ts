@@ -93,9 +93,9 @@ function stringify(value: JsonValue, indent: string): string {
   if (value === null || typeof value !== 'object') return JSON.stringify(value);
   const inner = indent + '  ';
   if (!(value instanceof Map)) {
-    if (value.length === 0) return '[]';
-    // Intervals and coordinate lists stay on one line; arrays of objects open up.
     const items = value as readonly JsonValue[];
+    if (items.length === 0) return '[]';
+    // Intervals and coordinate lists stay on one line; arrays of objects open up.
     if (items.every((v) => v === null || typeof v !== 'object')) return `[${items.map((v) => JSON.stringify(v)).join(', ')}]`;
     return `[\n${items.map((v) => inner + stringify(v, inner)).join(',\n')}\n${indent}]`;
   }

@@ -39,7 +39,7 @@ export function encodeRgbaPng(raster: Raster, text: Readonly<Record<string, stri
     body.set(v, k.length + 1);
     parts.push(pngChunk('tEXt', body));
   }
-  parts.push(pngChunk('IDAT', zlibSync(raw, { level: 9 })));
+  parts.push(pngChunk('IDAT', zlibSync(raw, { level: 6 })));
   parts.push(pngChunk('IEND', new Uint8Array(0)));
   const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
   let offset = 0;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { GLYPH_HEIGHT, GLYPH_WIDTH, glyphBits, glyphRows } from './bitmap-font-5x7';
+import { GLYPH_ASCENT, GLYPH_HEIGHT, GLYPH_WIDTH, glyphBits, glyphRows } from './bitmap-font';
 import { createRaster, drawLine, drawText, fillRect, hexColour, pixelAt, textWidth, type Raster, type Rgba } from './raster';
 
 const WHITE: Rgba = [255, 255, 255, 255];
@@ -14,13 +14,22 @@ function inkCount(r: Raster, colour: Rgba = INK): number {
 }
 
 describe('bitmap font', () => {
-  it('glyphRows covers printable ASCII 32-126 with 7 rows of 5 cells', () => {
+  it('glyphRows covers printable ASCII 32-126 with 9 rows of 5 cells', () => {
     for (let code = 32; code <= 126; code++) {
       const rows = glyphRows(String.fromCharCode(code));
       expect(rows, `code ${code}`).toBeDefined();
       expect(rows!.length).toBe(GLYPH_HEIGHT);
       for (const row of rows!) expect(row).toMatch(new RegExp(`^[.#]{${GLYPH_WIDTH}}$`));
     }
+  });
+
+  it('glyphRows uses the descender rows only for g j p q y , ;', () => {
+    const withDescender: string[] = [];
+    for (let code = 32; code <= 126; code++) {
+      const ch = String.fromCharCode(code);
+      if (glyphRows(ch)!.slice(GLYPH_ASCENT).some((row) => row.includes('#'))) withDescender.push(ch);
+    }
+    expect(withDescender.sort()).toEqual([',', ';', 'g', 'j', 'p', 'q', 'y']);
   });
 
   it('glyphBits gives every printable character a distinct glyph, ink in all but the space', () => {

@@ -1,4 +1,4 @@
-import { GLYPH_ADVANCE, GLYPH_HEIGHT, GLYPH_WIDTH, LINE_HEIGHT, glyphBits } from './bitmap-font-5x7';
+import { GLYPH_ADVANCE, GLYPH_HEIGHT, GLYPH_WIDTH, LINE_HEIGHT, glyphBits } from './bitmap-font';
 
 /** An sRGB colour with alpha, each channel an integer 0..255. */
 export type Rgba = readonly [number, number, number, number];
@@ -30,7 +30,9 @@ export function createRaster(width: number, height: number, background: Rgba): R
   if (!Number.isInteger(height) || height < 1 || height > 16384) throw new RangeError(`'height' must be an integer in [1, 16384]; got ${height}`);
   checkColour(background, 'background');
   const data = new Uint8Array(width * height * 4);
-  for (let i = 0; i < data.length; i += 4) data.set(background, i);
+  data.set(background, 0);
+  // Doubling copies fill the buffer in log2(pixels) steps.
+  for (let filled = 4; filled < data.length; filled *= 2) data.copyWithin(filled, 0, Math.min(filled, data.length - filled));
   return { width, height, data };
 }
 
@@ -53,9 +55,12 @@ export function fillRect(raster: Raster, x: number, y: number, w: number, h: num
   const y0 = Math.max(0, Math.round(y));
   const x1 = Math.min(raster.width, Math.round(x + w));
   const y1 = Math.min(raster.height, Math.round(y + h));
-  for (let py = y0; py < y1; py++) {
-    for (let px = x0; px < x1; px++) raster.data.set(colour, (py * raster.width + px) * 4);
-  }
+  if (x1 <= x0 || y1 <= y0) return;
+  const d = raster.data;
+  const rowStart = (y0 * raster.width + x0) * 4;
+  for (let px = 0; px < x1 - x0; px++) d.set(colour, rowStart + px * 4);
+  // Later rows copy the first one.
+  for (let py = y0 + 1; py < y1; py++) d.copyWithin((py * raster.width + x0) * 4, rowStart, rowStart + (x1 - x0) * 4);
 }
 
 export interface LineOptions {
@@ -140,7 +145,7 @@ export function lineAdvance(scale = 1): number {
 }
 
 /**
- * Draws one line of `text` in the built-in 5x7 font with its bounding box's top-left corner at
+ * Draws one line of `text` in the built-in bitmap font with its bounding box's top-left corner at
  * (x, y). Rotated by 90 the box is textHeight wide and textWidth tall, and the text reads upwards.
  * Characters outside printable ASCII draw as '?'. Clipped to the raster.
  */

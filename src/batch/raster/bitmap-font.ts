@@ -1,15 +1,18 @@
 /**
- * Tessera's own 5x7 bitmap font for printable ASCII (32-126). Each glyph is seven rows of five
- * cells, '#' ink and '.' paper, drawn for this project. Glyphs sit in a 6x8 advance cell
- * (one column and one row of spacing); descenders are folded into the seven rows.
+ * Tessera's own bitmap font for printable ASCII (32-126), drawn for this project: glyphs are five
+ * cells wide, seven rows above the baseline plus two descender rows (used by g j p q y , ;), '#' ink
+ * and '.' paper. Characters advance six cells; lines advance ten rows.
  */
 
 export const GLYPH_WIDTH = 5;
-export const GLYPH_HEIGHT = 7;
+/** Rows above the baseline. */
+export const GLYPH_ASCENT = 7;
+/** Rows of a glyph including the descender. */
+export const GLYPH_HEIGHT = 9;
 /** Horizontal advance per character, in font pixels (glyph plus one column of spacing). */
 export const GLYPH_ADVANCE = 6;
 /** Line height in font pixels (glyph plus one row of spacing). */
-export const LINE_HEIGHT = 8;
+export const LINE_HEIGHT = 10;
 
 const GLYPH_ROWS: Readonly<Record<string, string>> = {
   ' ': '..... ..... ..... ..... ..... ..... .....',
@@ -24,7 +27,7 @@ const GLYPH_ROWS: Readonly<Record<string, string>> = {
   ')': '.#... ..#.. ...#. ...#. ...#. ..#.. .#...',
   '*': '..... ..#.. #.#.# .###. #.#.# ..#.. .....',
   '+': '..... ..#.. ..#.. ##### ..#.. ..#.. .....',
-  ',': '..... ..... ..... ..... .##.. ..#.. .#...',
+  ',': '..... ..... ..... ..... ..... .##.. ..#.. .#... .....',
   '-': '..... ..... ..... ##### ..... ..... .....',
   '.': '..... ..... ..... ..... ..... .##.. .##..',
   '/': '..... ....# ...#. ..#.. .#... #.... .....',
@@ -39,7 +42,7 @@ const GLYPH_ROWS: Readonly<Record<string, string>> = {
   '8': '.###. #...# #...# .###. #...# #...# .###.',
   '9': '.###. #...# #...# .#### ....# ...#. .##..',
   ':': '..... .##.. .##.. ..... .##.. .##.. .....',
-  ';': '..... .##.. .##.. ..... .##.. ..#.. .#...',
+  ';': '..... .##.. .##.. ..... .##.. .##.. ..#.. .#... .....',
   '<': '...#. ..#.. .#... #.... .#... ..#.. ...#.',
   '=': '..... ..... ##### ..... ##### ..... .....',
   '>': '.#... ..#.. ...#. ....# ...#. ..#.. .#...',
@@ -83,17 +86,17 @@ const GLYPH_ROWS: Readonly<Record<string, string>> = {
   'd': '....# ....# .##.# #..## #...# #...# .####',
   'e': '..... ..... .###. #...# ##### #.... .###.',
   'f': '..##. .#..# .#... ###.. .#... .#... .#...',
-  'g': '..... .#### #...# #...# .#### ....# .###.',
+  'g': '..... ..... .#### #...# #...# #...# .#### ....# .###.',
   'h': '#.... #.... #.##. ##..# #...# #...# #...#',
   'i': '..#.. ..... .##.. ..#.. ..#.. ..#.. .###.',
-  'j': '...#. ..... ..##. ...#. ...#. #..#. .##..',
+  'j': '...#. ..... ..##. ...#. ...#. ...#. ...#. #..#. .##..',
   'k': '#.... #.... #..#. #.#.. ##... #.#.. #..#.',
   'l': '.##.. ..#.. ..#.. ..#.. ..#.. ..#.. .###.',
   'm': '..... ..... ##.#. #.#.# #.#.# #...# #...#',
   'n': '..... ..... #.##. ##..# #...# #...# #...#',
   'o': '..... ..... .###. #...# #...# #...# .###.',
-  'p': '..... ..... ####. #...# ####. #.... #....',
-  'q': '..... ..... .##.# #..## .#### ....# ....#',
+  'p': '..... ..... ####. #...# #...# #...# ####. #.... #....',
+  'q': '..... ..... .#### #...# #...# #...# .#### ....# ....#',
   'r': '..... ..... #.##. ##..# #.... #.... #....',
   's': '..... ..... .###. #.... .###. ....# ####.',
   't': '.#... .#... ###.. .#... .#... .#..# ..##.',
@@ -101,7 +104,7 @@ const GLYPH_ROWS: Readonly<Record<string, string>> = {
   'v': '..... ..... #...# #...# #...# .#.#. ..#..',
   'w': '..... ..... #...# #...# #.#.# #.#.# .#.#.',
   'x': '..... ..... #...# .#.#. ..#.. .#.#. #...#',
-  'y': '..... ..... #...# #...# .#### ....# .###.',
+  'y': '..... ..... #...# #...# #...# #...# .#### ....# .###.',
   'z': '..... ..... ##### ...#. ..#.. .#... #####',
   '{': '...#. ..#.. ..#.. .#... ..#.. ..#.. ...#.',
   '|': '..#.. ..#.. ..#.. ..#.. ..#.. ..#.. ..#..',
@@ -112,7 +115,7 @@ const GLYPH_ROWS: Readonly<Record<string, string>> = {
 function packGlyphs(): readonly Uint8Array[] {
   const glyphs: Uint8Array[] = [];
   for (let code = 32; code <= 126; code++) {
-    const rows = GLYPH_ROWS[String.fromCharCode(code)].split(' ');
+    const rows = glyphRows(String.fromCharCode(code)) as readonly string[];
     const bits = new Uint8Array(GLYPH_WIDTH * GLYPH_HEIGHT);
     rows.forEach((row, y) => {
       for (let x = 0; x < GLYPH_WIDTH; x++) bits[y * GLYPH_WIDTH + x] = row[x] === '#' ? 1 : 0;
@@ -124,14 +127,17 @@ function packGlyphs(): readonly Uint8Array[] {
 
 const GLYPHS = packGlyphs();
 
-/** The raw row strings of one character's glyph (for tests and inspection); undefined outside ASCII 32-126. */
+/** The nine row strings of one character's glyph (descender rows blank when absent); undefined outside ASCII 32-126. */
 export function glyphRows(char: string): readonly string[] | undefined {
   const rows = GLYPH_ROWS[char];
-  return rows === undefined ? undefined : rows.split(' ');
+  if (rows === undefined) return undefined;
+  const split = rows.split(' ');
+  while (split.length < GLYPH_HEIGHT) split.push('.'.repeat(GLYPH_WIDTH));
+  return split;
 }
 
 /**
- * The 5x7 ink mask of the character at `code` (row-major, 1 = ink). Codes outside printable
+ * The 5x9 ink mask of the character at `code` (row-major, 1 = ink). Codes outside printable
  * ASCII 32-126 map to '?', so any string can be drawn.
  */
 export function glyphBits(code: number): ArrayLike<number> {
