@@ -1,7 +1,7 @@
 import type { NegationResult, Span } from './types';
 import { FINDING_TERMS } from './finding-lexicon';
 import { TRIGGER_RULES, triggerPriority, type TriggerKind, type TriggerRule } from './negation-triggers';
-import { compilePhrase, matchPhrases, resolveOverlaps, type PhraseMatch } from './phrase-match';
+import { compilePhrase, indexRules, matchPhrases, resolveOverlaps, type PhraseMatch } from './phrase-match';
 import { tokeniseSentence, type SentenceToken } from './tokenise-sentence';
 
 interface CompiledTrigger extends TriggerRule {
@@ -12,8 +12,8 @@ interface CompiledFinding {
   readonly words: readonly RegExp[];
 }
 
-const COMPILED_TRIGGERS: readonly CompiledTrigger[] = TRIGGER_RULES.map((r) => ({ ...r, words: compilePhrase(r.phrase) }));
-const COMPILED_FINDINGS: readonly CompiledFinding[] = FINDING_TERMS.map((phrase) => ({ phrase, words: compilePhrase(phrase) }));
+const TRIGGER_INDEX = indexRules<CompiledTrigger>(TRIGGER_RULES.map((r) => ({ ...r, words: compilePhrase(r.phrase) })));
+const FINDING_INDEX = indexRules<CompiledFinding>(FINDING_TERMS.map((phrase) => ({ phrase, words: compilePhrase(phrase) })));
 
 // Punctuation that closes a clause, and with it any negation scope.
 const SCOPE_BREAKS = new Set(['.', ';', ':', '!', '?']);
@@ -97,7 +97,7 @@ export function analyseNegation(sentence: string, { window = 6 }: NegationOption
     throw new RangeError(`'window' must be an integer >= 1; got ${window}`);
   }
   const tokens = tokeniseSentence(sentence);
-  const matched = resolveOverlaps(matchPhrases(tokens, COMPILED_TRIGGERS), triggerPriority).filter((m) =>
+  const matched = resolveOverlaps(matchPhrases(tokens, TRIGGER_INDEX), triggerPriority).filter((m) =>
     inContext(tokens, m),
   );
 
@@ -111,7 +111,7 @@ export function analyseNegation(sentence: string, { window = 6 }: NegationOption
   }
 
   const findingMatches = resolveOverlaps(
-    matchPhrases(tokens, COMPILED_FINDINGS).filter((m) => {
+    matchPhrases(tokens, FINDING_INDEX).filter((m) => {
       for (let i = m.first; i <= m.last; i++) if (triggerToken[i]) return false;
       return true;
     }),

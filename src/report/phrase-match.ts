@@ -12,18 +12,38 @@ export function compilePhrase(phrase: string): RegExp[] {
   return phrase.split(' ').map((w) => new RegExp(`^(?:${w})$`));
 }
 
+/** Rules bucketed by a literal first word, so most tokens test only a few rules. */
+export interface RuleIndex<T> {
+  readonly byLiteral: ReadonlyMap<string, readonly T[]>;
+  readonly patterned: readonly T[];
+}
+
+const LITERAL = /^\^\(\?:([a-z']+)\)\$$/;
+
+/** Builds the index of a rule list once; matchPhrases takes the index. */
+export function indexRules<T extends { readonly words: readonly RegExp[] }>(rules: readonly T[]): RuleIndex<T> {
+  const byLiteral = new Map<string, T[]>();
+  const patterned: T[] = [];
+  for (const rule of rules) {
+    const literal = LITERAL.exec(rule.words[0].source)?.[1];
+    if (literal === undefined) patterned.push(rule);
+    else byLiteral.set(literal, [...(byLiteral.get(literal) ?? []), rule]);
+  }
+  return { byLiteral, patterned };
+}
+
 /**
  * Every match of every rule over runs of consecutive word tokens (punctuation between words
  * breaks a phrase). Overlaps are kept; resolveOverlaps chooses among them.
  */
 export function matchPhrases<T extends { readonly words: readonly RegExp[] }>(
   tokens: readonly SentenceToken[],
-  rules: readonly T[],
+  index: RuleIndex<T>,
 ): PhraseMatch<T>[] {
   const matches: PhraseMatch<T>[] = [];
   for (let i = 0; i < tokens.length; i++) {
     if (tokens[i].kind !== 'word') continue;
-    for (const rule of rules) {
+    for (const rule of [...(index.byLiteral.get(tokens[i].text) ?? []), ...index.patterned]) {
       const n = rule.words.length;
       if (i + n > tokens.length) continue;
       let ok = true;

@@ -156,6 +156,8 @@ function sentenceEnd(
   to: number,
   listNumber: number | undefined,
 ): { end: number; next: number } {
+  // In a numbered list the next number starts a new item even without a full stop before it.
+  const nextItem = listNumber === undefined ? undefined : new RegExp(`^${listNumber + 1}[.)][ \\t]+[A-Za-z]`);
   let j = start;
   while (j < to) {
     const c = text[j];
@@ -183,9 +185,7 @@ function sentenceEnd(
       j++;
       continue;
     }
-    // In a numbered list the next number starts a new item even without a full stop before it.
-    if (listNumber !== undefined && isInlineSpace(c)) {
-      const nextItem = new RegExp(`^${listNumber + 1}[.)][ \\t]+[A-Za-z]`);
+    if (nextItem !== undefined && isInlineSpace(c)) {
       if (nextItem.test(text.slice(j + 1, Math.min(to, j + 8))) && hasAlnum(text, start, j)) {
         return { end: trimEnd(text, start, j), next: j + 1 };
       }
