@@ -1,0 +1,300 @@
+import type { Rng } from '../core/seeded-random';
+import type { LungZone, ZoneLabel } from '../core/types';
+import type { Side } from './chest-geometry';
+import type { FindingKind } from './draw-findings';
+
+/** One finding as the report sees it: kind, where its mask lies (zones by share of mask), severity. */
+export interface ReportFinding {
+  readonly index: number; // index into the study's finding list
+  readonly kind: FindingKind;
+  readonly side: Side | 'both';
+  readonly zones: readonly LungZone[]; // zones the mask occupies, largest share first
+  readonly severity: number;
+  readonly variant: string;
+}
+
+export interface ReportFacts {
+  readonly findings: readonly ReportFinding[];
+  readonly cardiomegaly: boolean;
+  readonly ctr: number;
+  readonly edemaGrade: number;
+}
+
+/** Where a sentence's reference box comes from: a finding's mask within a zone, or the heart. */
+export interface BoxTarget {
+  readonly finding: number | 'heart';
+  readonly zone: ZoneLabel;
+}
+
+/** One generated report sentence with the ground truth a parser should recover from it. */
+export interface ReportSentence {
+  readonly text: string;
+  readonly section: 'findings' | 'impression';
+  readonly negated: boolean;
+  readonly uncertain: boolean;
+  readonly zones: readonly LungZone[]; // lung zones the sentence names
+  readonly finding: FindingKind | '';
+  readonly targets: readonly BoxTarget[];
+}
+
+type Loc = { zones: LungZone[]; phrase: string };
+const pick = <T>(rng: Rng, items: readonly T[]): T => items[rng.int(items.length)];
+const cap = (s: string): string => s.charAt(0).toUpperCase() + s.slice(1);
+const sideOf = (z: LungZone): Side => (z.startsWith('right') ? 'right' : 'left');
+const rowOf = (z: LungZone): string => z.slice(z.indexOf('-') + 1);
+const ROW_ORDER = ['upper', 'middle', 'lower'];
+const SIZE_WORDS: readonly (readonly string[])[] = [[], ['small', 'minor'], ['moderate', 'moderate-sized'], ['large', 'sizeable']];
+
+/** A phrase naming one or two zones, e.g. "the right middle and lower zones". */
+function locate(rng: Rng, zones: readonly LungZone[], kind: FindingKind): Loc {
+  const zs = [...zones];
+  if (zs.length === 1) {
+    const [z] = zs;
+    const side = sideOf(z), row = rowOf(z);
+    const options = [`the ${side} ${row} zone`, `the ${side} ${row} zone`];
+    if (row === 'middle') options.push(`the ${side} mid zone`);
+    if (row === 'lower' && kind !== 'nodule') options.push(`the ${side} base`);
+    if (row === 'lower') options.push(`the ${side} lower zone`);
+    return { zones: zs, phrase: pick(rng, options) };
+  }
+  const [a, b] = zs.sort((p, q) => (sideOf(p) === sideOf(q) ? ROW_ORDER.indexOf(rowOf(p)) - ROW_ORDER.indexOf(rowOf(q)) : sideOf(p) === 'right' ? -1 : 1));
+  if (sideOf(a) === sideOf(b)) return { zones: zs, phrase: `the ${sideOf(a)} ${rowOf(a)} and ${rowOf(b)} zones` };
+  if (rowOf(a) === rowOf(b)) {
+    const row = rowOf(a);
+    const options = [`both ${row} zones`, `the right and left ${row} zones`];
+    if (row === 'lower' && kind !== 'nodule') options.push('both bases');
+    return { zones: zs, phrase: pick(rng, options) };
+  }
+  return { zones: zs, phrase: `the ${sideOf(a)} ${rowOf(a)} zone and the ${sideOf(b)} ${rowOf(b)} zone` };
+}
+
+/** Zones a sentence names for a finding: at most two, the ones holding most of its mask. */
+function namedZones(f: ReportFinding): LungZone[] {
+  if (f.kind === 'edema') return ['right-middle', 'left-middle'];
+  if (f.kind === 'nodule') return f.zones.slice(0, 1);
+  if (f.kind === 'effusion') {
+    const side = f.side as Side;
+    const z: LungZone[] = [`${side}-lower` as LungZone];
+    if (f.severity >= 3 && f.zones.includes(`${side}-middle` as LungZone)) z.push(`${side}-middle` as LungZone);
+    return z;
+  }
+  if (f.kind === 'pneumothorax' && f.variant === 'apical') return [`${f.side}-upper` as LungZone];
+  return f.zones.slice(0, 2);
+}
+
+interface Built {
+  text: string;
+  uncertain: boolean;
+}
+
+function consolidationText(rng: Rng, loc: string, hedge: boolean, plural: boolean): Built {
+  if (hedge) {
+    return pick(rng, [
+      { text: `Possible early consolidation in ${loc}.`, uncertain: true },
+      { text: `Ill-defined opacity in ${loc}, possibly infective.`, uncertain: true },
+      { text: `Hazy shadowing in ${loc} may represent consolidation.`, uncertain: true },
+    ]);
+  }
+  if (plural) {
+    return pick(rng, [
+      { text: `There are patchy airspace opacities in ${loc}.`, uncertain: false },
+      { text: `Areas of consolidation are seen in ${loc}.`, uncertain: false },
+    ]);
+  }
+  return pick(rng, [
+    { text: `There is a focal opacity in ${loc}.`, uncertain: false },
+    { text: `Patchy consolidation is seen in ${loc}.`, uncertain: false },
+    { text: `Airspace opacity in ${loc}, in keeping with consolidation.`, uncertain: false },
+    { text: `An area of consolidation with air bronchograms occupies ${loc}.`, uncertain: false },
+    { text: `Focal airspace shadowing is present in ${loc}.`, uncertain: false },
+  ]);
+}
+
+function noduleText(rng: Rng, loc: string, hedge: boolean, plural: boolean, mm: number): Built {
+  if (hedge) {
+    return pick(rng, [
+      { text: `Possible small nodule in ${loc}.`, uncertain: true },
+      { text: `A faint rounded density in ${loc} may be a nodule.`, uncertain: true },
+    ]);
+  }
+  if (plural) return { text: `Rounded nodules are seen in ${loc}.`, uncertain: false };
+  return pick(rng, [
+    { text: `A ${mm} mm nodule is noted in ${loc}.`, uncertain: false },
+    { text: `There is a small rounded nodular opacity in ${loc}.`, uncertain: false },
+    { text: `A well-defined nodule projects over ${loc}.`, uncertain: false },
+    { text: `Solitary pulmonary nodule in ${loc}, measuring about ${mm} mm.`, uncertain: false },
+  ]);
+}
+
+function effusionText(rng: Rng, f: ReportFinding, loc: Loc, hedge: boolean): Built {
+  const size = pick(rng, SIZE_WORDS[Math.min(3, Math.max(1, f.severity))]);
+  const side = f.side as Side;
+  if (hedge) {
+    return pick(rng, [
+      { text: `Possible small effusion at the ${side} base.`, uncertain: true },
+      { text: `Slight blunting of the ${side} costophrenic angle, possibly a trace of fluid.`, uncertain: true },
+    ]);
+  }
+  if (loc.zones.length === 2) {
+    return pick(rng, [
+      { text: `A ${size} pleural effusion occupies ${loc.phrase}.`, uncertain: false },
+      { text: `There is a ${size} pleural effusion in ${loc.phrase}, with a meniscus laterally.`, uncertain: false },
+    ]);
+  }
+  return pick(rng, [
+    { text: `There is a ${size} pleural effusion at the ${side} base.`, uncertain: false },
+    { text: `The ${side} costophrenic angle is blunted by a ${size} effusion.`, uncertain: false },
+    { text: `A ${size} pleural effusion is seen in the ${side} lower zone, with a meniscus.`, uncertain: false },
+    { text: `Fluid fills the ${side} costophrenic angle, in keeping with a ${size} effusion.`, uncertain: false },
+  ]);
+}
+
+function pneumothoraxText(rng: Rng, f: ReportFinding, loc: Loc, hedge: boolean): Built {
+  const size = pick(rng, SIZE_WORDS[Math.min(3, Math.max(1, f.severity))]);
+  if (hedge) return { text: f.variant === 'apical' ? `Possible small ${f.side} apical pneumothorax.` : `Possible small pneumothorax in ${loc.phrase}.`, uncertain: true };
+  if (f.variant === 'apical') {
+    return pick(rng, [
+      { text: `There is a ${size} ${f.side} apical pneumothorax.`, uncertain: false },
+      { text: `A ${size} ${f.side} apical pneumothorax is present, with a visible pleural edge.`, uncertain: false },
+      { text: `A pleural line is seen at the ${f.side} apex with no lung markings above it, in keeping with pneumothorax.`, uncertain: false },
+    ]);
+  }
+  return pick(rng, [
+    { text: `There is a ${size} pneumothorax in ${loc.phrase}.`, uncertain: false },
+    { text: `A pleural line with absent lung markings beyond it is seen laterally in ${loc.phrase}, in keeping with pneumothorax.`, uncertain: false },
+    { text: `A ${size} pneumothorax is present along the lateral chest wall in ${loc.phrase}.`, uncertain: false },
+  ]);
+}
+
+function atelectasisText(rng: Rng, loc: string, hedge: boolean): Built {
+  if (hedge) return { text: `A linear opacity in ${loc} probably represents atelectasis.`, uncertain: true };
+  return pick(rng, [
+    { text: `Linear band of atelectasis in ${loc}.`, uncertain: false },
+    { text: `Plate-like atelectasis is seen in ${loc}.`, uncertain: false },
+    { text: `There is subsegmental atelectasis in ${loc}.`, uncertain: false },
+    { text: `A horizontal band of discoid atelectasis crosses ${loc}.`, uncertain: false },
+  ]);
+}
+
+function edemaText(rng: Rng, grade: number, oedema: string): Built {
+  if (grade === 1) {
+    return pick(rng, [
+      { text: `Mild vascular congestion in both perihilar regions.`, uncertain: false },
+      { text: `Prominent vessels in both perihilar regions, in keeping with mild vascular congestion.`, uncertain: false },
+    ]);
+  }
+  if (grade === 2) {
+    return pick(rng, [
+      { text: `Bilateral perihilar interstitial markings, consistent with interstitial ${oedema}.`, uncertain: false },
+      { text: `Interstitial ${oedema} with reticular shadowing in both perihilar regions.`, uncertain: false },
+    ]);
+  }
+  return pick(rng, [
+    { text: `Bilateral perihilar airspace opacities in a bat-wing distribution, in keeping with alveolar ${oedema}.`, uncertain: false },
+    { text: `Confluent shadowing in both perihilar regions, consistent with alveolar pulmonary ${oedema}.`, uncertain: false },
+  ]);
+}
+
+const NEGATIONS: Readonly<Record<string, readonly string[]>> = {
+  pneumothorax: ['No pneumothorax.', 'There is no pneumothorax.', 'No evidence of pneumothorax.', 'A pneumothorax is not seen.'],
+  effusion: ['No pleural effusion.', 'There is no pleural effusion.', 'No effusion is seen.', 'No pleural fluid.'],
+  consolidation: ['No focal consolidation.', 'There is no consolidation.', 'No airspace opacity is seen.'],
+  nodule: ['No pulmonary nodule is identified.', 'No nodules or masses.'],
+  edema: ['No pulmonary OEDEMA.', 'There is no OEDEMA.', 'No features of pulmonary OEDEMA.'],
+};
+
+/**
+ * Writes a plain-prose report (FINDINGS and IMPRESSION sections) for a study's ground truth:
+ * positive sentences naming each finding and its zones, hedged ones, one sentence naming two
+ * places for paired findings, negated statements for absent findings, and normal statements.
+ * Our own templates; several phrasings per finding. Returns the text and its sentences in order.
+ */
+export function composeReport(rng: Rng, facts: ReportFacts): { text: string; sentences: ReportSentence[] } {
+  const oedema = rng.next() < 0.7 ? 'oedema' : 'edema';
+  const findings: ReportSentence[] = [];
+  const impression: ReportSentence[] = [];
+  const add = (list: ReportSentence[], s: Omit<ReportSentence, 'section'>, section: 'findings' | 'impression'): void => {
+    list.push({ ...s, section });
+  };
+  const lungFindings = facts.findings.filter((f) => f.kind !== 'cardiomegaly');
+  const byKind = new Map<FindingKind, ReportFinding[]>();
+  for (const f of lungFindings) byKind.set(f.kind, [...(byKind.get(f.kind) ?? []), f]);
+
+  for (const [kind, group] of byKind) {
+    // Two findings of one kind on different sides: often one sentence naming both places.
+    const joined = group.length === 2 && kind !== 'pneumothorax' && rng.next() < 0.6;
+    const units = joined ? [group] : group.map((f) => [f]);
+    for (const unit of units) {
+      const zones = joined ? unit.map((f) => namedZones(f)[0]) : namedZones(unit[0]);
+      const loc = locate(rng, zones, kind);
+      const f = unit[0];
+      const hedge = !joined && kind !== 'edema' && rng.next() < 0.15;
+      let built: Built;
+      switch (kind) {
+        case 'consolidation': built = consolidationText(rng, loc.phrase, hedge, joined); break;
+        case 'nodule': built = noduleText(rng, loc.phrase, hedge, joined, 6 + rng.int(15)); break;
+        case 'effusion':
+          built = joined
+            ? { text: cap(`${pick(rng, ['small', 'moderate'])} pleural effusions at both bases.`), uncertain: false }
+            : effusionText(rng, f, loc, hedge);
+          break;
+        case 'pneumothorax': built = pneumothoraxText(rng, f, loc, hedge); break;
+        case 'atelectasis': built = atelectasisText(rng, loc.phrase, hedge); break;
+        default: built = edemaText(rng, f.severity, oedema); break;
+      }
+      const named = joined && kind === 'effusion' ? unit.map((u) => `${u.side}-lower` as LungZone) : loc.zones;
+      const targets: BoxTarget[] = [];
+      for (const z of named) for (const u of unit) if (u.zones.includes(z) || kind === 'edema') targets.push({ finding: u.index, zone: z });
+      add(findings, { text: cap(built.text), negated: false, uncertain: built.uncertain, zones: named, finding: kind, targets }, 'findings');
+      add(impression, { text: impressionText(rng, kind, unit, loc.phrase, hedge, oedema), negated: false, uncertain: hedge, zones: named, finding: kind, targets }, 'impression');
+    }
+  }
+
+  if (facts.cardiomegaly) {
+    const text = pick(rng, [
+      'The heart is enlarged.',
+      'The cardiac silhouette is enlarged.',
+      `Cardiomegaly, with a cardiothoracic ratio of about ${Math.round(facts.ctr * 100)} percent.`,
+      'The heart is enlarged, with the cardiothoracic ratio above one half.',
+    ]);
+    const targets: BoxTarget[] = [{ finding: 'heart', zone: 'cardiac' }];
+    add(findings, { text, negated: false, uncertain: false, zones: [], finding: 'cardiomegaly', targets }, 'findings');
+    add(impression, { text: pick(rng, ['Cardiomegaly.', 'Enlarged cardiac silhouette.']), negated: false, uncertain: false, zones: [], finding: 'cardiomegaly', targets }, 'impression');
+  } else {
+    const text = pick(rng, ['The heart size is normal.', 'The cardiac silhouette is within normal limits.', 'Heart size is normal.', 'The cardiomediastinal silhouette is unremarkable.']);
+    add(findings, { text, negated: false, uncertain: false, zones: [], finding: '', targets: [] }, 'findings');
+  }
+
+  const normals: ReportSentence[] = [];
+  for (const kind of ['pneumothorax', 'effusion', 'consolidation', 'nodule', 'edema'] as const) {
+    if (byKind.has(kind) || rng.next() < (kind === 'nodule' ? 0.6 : 0.25)) continue;
+    const text = pick(rng, NEGATIONS[kind]).replace('OEDEMA', oedema);
+    normals.push({ text, section: 'findings', negated: true, uncertain: false, zones: [], finding: kind, targets: [] });
+  }
+  if (lungFindings.length === 0 && rng.next() < 0.8) {
+    normals.unshift({ text: pick(rng, ['The lungs are clear.', 'Both lungs are clear.', 'The lungs are well expanded and clear.']), section: 'findings', negated: false, uncertain: false, zones: [], finding: '', targets: [] });
+  }
+  if (rng.next() < 0.4) {
+    normals.push({ text: pick(rng, ['The bony structures are intact.', 'The trachea is central.', 'The visualised bones are unremarkable.']), section: 'findings', negated: false, uncertain: false, zones: [], finding: '', targets: [] });
+  }
+  findings.push(...normals);
+  if (impression.length === 0) {
+    impression.push({ text: pick(rng, ['No acute cardiopulmonary abnormality.', 'Normal chest radiograph.', 'No acute abnormality.']), section: 'impression', negated: false, uncertain: false, zones: [], finding: '', targets: [] });
+  }
+  const sentences = [...findings, ...impression];
+  const text = `FINDINGS:\n${findings.map((s) => s.text).join(' ')}\n\nIMPRESSION:\n${impression.map((s) => s.text).join(' ')}\n`;
+  return { text, sentences };
+}
+
+function impressionText(rng: Rng, kind: FindingKind, unit: readonly ReportFinding[], loc: string, hedge: boolean, oedema: string): string {
+  const f = unit[0];
+  const lead = (s: string): string => cap(hedge ? `possible ${s}` : s);
+  switch (kind) {
+    case 'consolidation': return lead(pick(rng, [`consolidation in ${loc}.`, `airspace opacity in ${loc}.`]));
+    case 'nodule': return lead(pick(rng, [`nodule in ${loc}.`, `pulmonary nodule in ${loc}.`]));
+    case 'effusion': return unit.length === 2 ? 'Bilateral basal pleural effusions.' : lead(`${f.side} basal pleural effusion.`);
+    case 'pneumothorax': return lead(f.variant === 'apical' ? `${f.side} apical pneumothorax.` : `pneumothorax in ${loc}.`);
+    case 'atelectasis': return lead(`atelectasis in ${loc}.`);
+    default: return cap(`${['', 'mild vascular congestion', 'interstitial', 'alveolar'][f.severity]}${f.severity >= 2 ? ` ${oedema}` : ''} in both perihilar regions.`);
+  }
+}

@@ -1,0 +1,27 @@
+import { MIN_PHANTOM_SIZE } from './generate-phantom-study';
+
+export type PhantomFormat = 'png' | 'dcm' | 'mixed';
+export const PHANTOM_FORMATS: readonly PhantomFormat[] = ['png', 'dcm', 'mixed'];
+
+/** Options of a synthetic sample set. 'mixed' writes mostly 8-bit PNG with some 16-bit PNG and DICOM. */
+export interface PhantomSetOptions {
+  readonly n: number;
+  readonly seed: number;
+  readonly size?: number;
+  readonly format?: PhantomFormat;
+  readonly bitDepth?: 8 | 16;
+  readonly name?: string;
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+/** Every problem with a set's options, one message each (empty when they are fine). */
+export function phantomSetProblems(options: PhantomSetOptions): string[] {
+  const { n, seed, size = 512, format = 'png', bitDepth = 8 } = options;
+  const problems: string[] = [];
+  if (!Number.isInteger(n) || n < 1) problems.push(`'n' must be an integer >= 1; got ${n}`);
+  if (!Number.isSafeInteger(seed) || seed < 0) problems.push(`'seed' must be a non-negative integer; got ${seed}`);
+  if (!Number.isInteger(size) || size < MIN_PHANTOM_SIZE || size > 4096) problems.push(`'size' must be an integer in [${MIN_PHANTOM_SIZE}, 4096]; got ${size}`);
+  if (!PHANTOM_FORMATS.includes(format)) problems.push(`'format' must be one of ${PHANTOM_FORMATS.join(', ')}; got '${String(format)}'`);
+  if (bitDepth !== 8 && bitDepth !== 16) problems.push(`'bitDepth' must be 8 or 16; got ${String(bitDepth)}`);
+  return problems;
+}
