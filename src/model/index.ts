@@ -3,7 +3,7 @@ export * from './types';
 export { validateManifest, parseManifest, formatProblem, describeValue, ModelContractError } from './contract';
 export type { Problem, ModelContractCode } from './contract';
 export { preprocessImage, stackImageTensors, preprocessingTag } from './preprocess';
-export type { ImageInputSpec, IntensityWindow, PreprocessedImage } from './preprocess';
+export type { Float32Tensor, ImageInputSpec, IntensityWindow, PreprocessedImage } from './preprocess';
 export { createDualEncoder, imageOutputToCells, poolTokenStates } from './encoders';
 export type { DualEncoder, DualEncoderParts, EncodedImage, EncodeImageOptions } from './encoders';
 export { checkImageOutput, checkTextOutput } from './output-checks';

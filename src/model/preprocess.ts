@@ -9,9 +9,12 @@ export type ImageInputSpec = ModelManifest['image']['input'];
 /** A VOI window in the units of the image data; without one, valueRange maps to [0, 1]. */
 export type IntensityWindow = Parameters<typeof toUnitIntensity>[1];
 
+/** A NamedTensor known to hold float32 data. */
+export type Float32Tensor = NamedTensor & { readonly type: 'float32'; readonly data: Float32Array };
+
 export interface PreprocessedImage {
   /** [1, C, H, W] float32, ready for the image encoder. */
-  readonly tensor: NamedTensor;
+  readonly tensor: Float32Tensor;
   /** The exact map from original image pixels to input pixels. */
   readonly transform: ResizeTransform;
 }
@@ -51,12 +54,12 @@ export function preprocessImage(
 }
 
 /** Stacks [1, C, H, W] tensors into one [N, C, H, W] batch. */
-export function stackImageTensors(tensors: readonly NamedTensor[]): NamedTensor {
+export function stackImageTensors(tensors: readonly Float32Tensor[]): Float32Tensor {
   if (tensors.length === 0) throw new RangeError("'tensors' must hold at least one tensor; got 0");
   const [, c, h, w] = tensors[0].dims;
   const per = c * h * w;
   const data = new Float32Array(tensors.length * per);
-  tensors.forEach((t, i) => data.set(t.data as Float32Array, i * per));
+  tensors.forEach((t, i) => data.set(t.data, i * per));
   return { type: 'float32', data, dims: [tensors.length, c, h, w] };
 }
 

@@ -52,8 +52,11 @@ function encodeOne(tokenizer: PreTrainedTokenizer, sentence: string, maxTokens: 
   if (full.length <= maxTokens) return full;
   const words = tokenizer.encode(sentence, { add_special_tokens: false });
   const specials = full.length - words.length;
+  if (specials >= maxTokens) {
+    throw new RangeError(`max_tokens ${maxTokens} leaves no room for words after the tokenizer's ${specials} special tokens; raise text.max_tokens.`);
+  }
   const start = findRun(full, words);
-  if (start < 0 || specials >= maxTokens) {
+  if (start < 0) {
     throw new Error(
       `sentence ${index} has ${full.length} tokens, more than max_tokens ${maxTokens}, and the tokenizer's special tokens ` +
         'do not sit only before and after the words, so it cannot be truncated safely. Raise text.max_tokens or shorten the sentence.',
