@@ -187,3 +187,12 @@ describe('isNormalStatement', () => {
     expect(isNormalStatement('The lungs are clear without focal consolidation.')).toBe(true);
   });
 });
+
+describe('detectNegation on huge input', () => {
+  it('detectNegation(huge sentence) finishes and negates a long run of negated findings', () => {
+    const s = 'No effusion, '.repeat(5000) + 'no pneumothorax.';
+    const r = detectNegation(s);
+    expect(r.negated).toBe(true);
+    expect(r.triggers).toHaveLength(5001);
+  });
+});

@@ -63,8 +63,13 @@ export function resolveOverlaps<T>(matches: readonly PhraseMatch<T>[], priority:
     (a, b) => b.last - b.first - (a.last - a.first) || priority(a.rule) - priority(b.rule) || a.first - b.first,
   );
   const kept: PhraseMatch<T>[] = [];
+  const taken = new Set<number>();
   for (const m of ordered) {
-    if (kept.every((k) => m.last < k.first || m.first > k.last)) kept.push(m);
+    let free = true;
+    for (let i = m.first; i <= m.last && free; i++) free = !taken.has(i);
+    if (!free) continue;
+    for (let i = m.first; i <= m.last; i++) taken.add(i);
+    kept.push(m);
   }
   return kept.sort((a, b) => a.first - b.first);
 }

@@ -192,3 +192,14 @@ describe('splitReport', () => {
     }
   });
 });
+
+describe('splitReport on huge input', () => {
+  it('splitReport(huge text) stays linear: a 200 000-character sentence of decimals and many short sentences', () => {
+    const longSentence = 'Values 2.5 '.repeat(20_000);
+    const r = splitReport(longSentence);
+    expect(r.sentences).toHaveLength(1);
+    expect(r.sentences[0].text).toBe(longSentence.trim());
+    const many = 'Small effusion. '.repeat(10_000);
+    expect(splitReport(many).sentences).toHaveLength(10_000);
+  });
+});

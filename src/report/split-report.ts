@@ -126,11 +126,11 @@ function wordBefore(text: string, j: number, start: number): string {
 }
 
 /** If the full stop at j ends a sentence, the end of the sentence (after closers); else undefined. */
-function periodEnd(text: string, j: number, start: number, to: number): number | undefined {
+function periodEnd(text: string, j: number, start: number, to: number, seenAlnum: boolean): number | undefined {
   let k = j;
   while (k < to && text[k] === '.') k++;
   const e = skipClosers(text, k, to);
-  if (!hasAlnum(text, start, j)) return undefined;
+  if (!seenAlnum) return undefined;
   if (e >= to) return e;
   // Decimals, dates, "e.g.," and "P.A./A.P." continue the sentence.
   if (!isSpace(text[e])) return undefined;
@@ -159,8 +159,11 @@ function sentenceEnd(
   // In a numbered list the next number starts a new item even without a full stop before it.
   const nextItem = listNumber === undefined ? undefined : new RegExp(`^${listNumber + 1}[.)][ \\t]+[A-Za-z]`);
   let j = start;
+  // Tracked as the scan goes, so a long sentence is not rescanned at every full stop.
+  let seenAlnum = false;
   while (j < to) {
     const c = text[j];
+    if (!seenAlnum && /[\p{L}\p{N}]/u.test(c)) seenAlnum = true;
     if (c === '\n') {
       let k = j + 1;
       while (k < to && isInlineSpace(text[k])) k++;
@@ -175,18 +178,18 @@ function sentenceEnd(
       while (e < to && (text[e] === '?' || text[e] === '!' || text[e] === '.')) e++;
       e = skipClosers(text, e, to);
       // "?consolidation" is a query prefix, not a question.
-      if (hasAlnum(text, start, j) && (e >= to || isSpace(text[e]))) return { end: e, next: e };
+      if (seenAlnum && (e >= to || isSpace(text[e]))) return { end: e, next: e };
       j = e;
       continue;
     }
     if (c === '.') {
-      const e = periodEnd(text, j, start, to);
+      const e = periodEnd(text, j, start, to, seenAlnum);
       if (e !== undefined) return { end: e, next: e };
       j++;
       continue;
     }
     if (nextItem !== undefined && isInlineSpace(c)) {
-      if (nextItem.test(text.slice(j + 1, Math.min(to, j + 8))) && hasAlnum(text, start, j)) {
+      if (seenAlnum && nextItem.test(text.slice(j + 1, Math.min(to, j + 8)))) {
         return { end: trimEnd(text, start, j), next: j + 1 };
       }
     }
