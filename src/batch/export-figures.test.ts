@@ -91,6 +91,19 @@ describe('renderFigures', () => {
     for (const f of figs) expect(decode(f.png).width).toBeGreaterThan(0);
   });
 
+  it('renderFigures survives NaN and out-of-range rates, missing intervals, long non-ASCII ids and many models', () => {
+    const odd = modelSummary('m\u00e9dele-with-a-very-long-identifier-from-a-folder-path', 5);
+    const models = [
+      { ...odd, grounding: { ...odd.grounding, rate: NaN, wilson95: undefined, bootstrap95: [NaN, 2] as [number, number], chance: 1e300 } },
+      ...Array.from({ length: 8 }, (_, i) => modelSummary(`model-${i}`, i)),
+    ];
+    const figs = renderFigures(scoreSummary({ models }), sentenceRecords());
+    const img = decode(figs[0].png);
+    const layout = barChartLayout(modelRateChart(scoreSummary({ models })));
+    expect([img.width, img.height]).toEqual([layout.width, layout.height]);
+    expect(layout.bars.length).toBe(9);
+  });
+
   it('renderFigures stores plain-text metadata in the PNG', () => {
     const text = Buffer.from(renderFigures(scoreSummary(), [])[0].png).toString('latin1');
     expect(text).toContain('tEXtSoftware\u0000Tessera');
