@@ -134,14 +134,23 @@ export function countPixelCentresInUnion(
   checkTolerance(tolerancePx);
   const rs = rects.map((r) => enlargeRect(r, tolerancePx)).filter((r) => r.w >= 0 && r.h >= 0);
   if (rs.length === 0 || range.lastX < range.firstX) return 0;
+  // Rows between consecutive box edges are covered by the same boxes: count one row per band.
+  const cuts = new Set<number>([range.firstY, range.lastY + 1]);
+  for (const r of rs) {
+    for (const py of [Math.ceil(r.y - 0.5), Math.floor(r.y + r.h - 0.5) + 1]) {
+      if (py > range.firstY && py <= range.lastY) cuts.add(py);
+    }
+  }
+  const bands = Array.from(cuts).sort((p, q) => p - q);
   const spans: [number, number][] = [];
   let count = 0;
-  for (let py = range.firstY; py <= range.lastY; py++) {
-    const yc = py + 0.5;
+  for (let bi = 0; bi + 1 < bands.length; bi++) {
+    const yc = bands[bi] + 0.5;
     spans.length = 0;
     for (const r of rs) if (yc >= r.y && yc <= r.y + r.h) spans.push([r.x, r.x + r.w]);
     if (spans.length === 0) continue;
     spans.sort((p, q) => p[0] - q[0]);
+    let inRow = 0;
     let [s, e] = spans[0];
     for (let k = 1; k <= spans.length; k++) {
       if (k < spans.length && spans[k][0] <= e) {
@@ -151,9 +160,10 @@ export function countPixelCentresInUnion(
       // Pixel centres in the closed interval [s, e]: px + 0.5 in [s, e], px within the range.
       const a = Math.max(range.firstX, Math.ceil(s - 0.5));
       const b = Math.min(range.lastX, Math.floor(e - 0.5));
-      if (b >= a) count += b - a + 1;
+      if (b >= a) inRow += b - a + 1;
       if (k < spans.length) [s, e] = spans[k];
     }
+    count += inRow * (bands[bi + 1] - bands[bi]);
   }
   return count;
 }

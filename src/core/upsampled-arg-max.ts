@@ -87,7 +87,9 @@ function planAxis(size: number, scale: number, offset: number, inputSize: number
     if (!(g >= -0.5 && g <= n - 0.5)) continue;
     if (first < 0) first = p;
     last = p;
-    const [i0, t] = nodeAndWeight(g, n);
+    const c = n === 1 ? 0 : g < 0 ? 0 : g > n - 1 ? n - 1 : g;
+    const i0 = n === 1 ? 0 : Math.min(Math.floor(c), n - 2);
+    const t = c - i0;
     if (i0 !== groupNode) {
       flush();
       groupNode = i0;
