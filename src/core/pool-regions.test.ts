@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { formatAggregator, parseAggregator, poolRegions, poolRegionsMatrix } from './pool-regions';
-import { poolSentences } from './pool-sentences';
 import { createRng } from './seeded-random';
 import { expectClose } from '../../tests/support/expect-close';
 import type { Aggregator } from './types';
@@ -97,16 +96,5 @@ describe('parseAggregator', () => {
     for (const bad of ['', 'softmax', 'softmax:', 'softmax:abc', 'topk: 5', 'MAX', 'max:1', 'lse:1e999']) {
       expect(() => parseAggregator(bad), bad).toThrow(RangeError);
     }
-  });
-});
-
-describe('poolSentences', () => {
-  it("poolSentences(values, 'mean') averages, is undefined on empty, propagates NaN", () => {
-    expectClose(poolSentences([0.2, 0.4, 0.9])!, 0.5, 1e-12);
-    expect(poolSentences([3])).toBe(3);
-    expect(poolSentences([])).toBeUndefined();
-    expect(Number.isNaN(poolSentences([1, Number.NaN])!)).toBe(true);
-    expectClose(poolSentences([1.7e308, 1.7e308])!, 1.7e308, 1e295);
-    expect(() => poolSentences([1], 'max' as 'mean')).toThrow("'method' must be 'mean'; got 'max'");
   });
 });
