@@ -73,3 +73,10 @@ describe('ort tensor conversion', () => {
     await expect(createOrtNodeEngine({ threads: 1.5 })).rejects.toThrow(/'threads' must be an integer >= 1; got 1.5/);
   });
 });
+
+describe('createOrtWebEngine in Node', () => {
+  it('createOrtWebEngine rejects threads that are not a positive integer', async () => {
+    const { createOrtWebEngine } = await import('./ort-web');
+    await expect(createOrtWebEngine({ threads: 0 })).rejects.toThrow(/'threads' must be an integer >= 1; got 0/);
+  });
+});

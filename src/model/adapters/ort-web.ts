@@ -17,17 +17,32 @@ export async function createOrtWebEngine({ wasmPaths, threads = 2 }: { wasmPaths
   const ort: OrtWeb = await import('onnxruntime-web/wasm');
   if (wasmPaths !== undefined) ort.env.wasm.wasmPaths = wasmPaths;
   // Threads need cross-origin isolation (SharedArrayBuffer); without it the runtime uses one thread.
-  const isolated = (globalThis as { crossOriginIsolated?: boolean }).crossOriginIsolated;
+  const isolated = (globalThis as { crossOriginIsolated?: boolean }).crossOriginIsolated === true;
   const isNode = typeof (globalThis as { process?: { versions?: { node?: string } } }).process?.versions?.node === 'string';
   ort.env.wasm.numThreads = isolated || isNode ? threads : 1;
   return {
     name: 'onnxruntime-web',
+    // Threads are set once for the runtime (above); a per-session count is not supported by the WASM backend.
     async createSession(model) {
-      const session = await ort.InferenceSession.create(model, {
-        executionProviders: ['wasm'],
-        graphOptimizationLevel: 'all',
-      });
-      return wrapSession(ort, session);
+      try {
+        const session = await ort.InferenceSession.create(model, {
+          executionProviders: ['wasm'],
+          graphOptimizationLevel: 'all',
+        });
+        return wrapSession(ort, session);
+      } catch (cause) {
+        const message = (cause as Error).message ?? String(cause);
+        if (/no available backend/i.test(message)) {
+          throw new Error(
+            `onnxruntime-web could not load its WebAssembly files (wasmPaths = ${String(ort.env.wasm.wasmPaths ?? 'default')}): ${message}. ` +
+              (isNode
+                ? "In Node pass { wasmPaths: '<repository>/node_modules/onnxruntime-web/dist/' } to createOrtWebEngine."
+                : 'Serve the ort-wasm-simd-threaded .wasm and .mjs files from the app build and pass their folder as wasmPaths.'),
+            { cause },
+          );
+        }
+        throw cause;
+      }
     },
   };
 }
