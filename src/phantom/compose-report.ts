@@ -228,7 +228,7 @@ export function composeReport(rng: Rng, facts: ReportFacts): { text: string; sen
       const zones = joined ? unit.map((f) => namedZones(f)[0]) : namedZones(unit[0]);
       const loc = locate(rng, zones, kind);
       const f = unit[0];
-      const hedge = !joined && kind !== 'edema' && rng.next() < 0.15;
+      const hedge = !joined && kind !== 'edema' && f.severity === 1 && rng.next() < 0.18;
       let built: Built;
       switch (kind) {
         case 'consolidation': built = consolidationText(rng, loc.phrase, hedge, joined); break;

@@ -154,18 +154,18 @@ function drawClavicles(rng: Rng, g: ChestGeometry, out: Float32Array): void {
 
 function drawSpine(rng: Rng, g: ChestGeometry, out: Float32Array): void {
   const n = g.size;
-  const half = n * uniform(rng, 0.03, 0.038);
+  const half = n * uniform(rng, 0.038, 0.046);
   const period = n * uniform(rng, 0.042, 0.05);
   const phase = rng.next() * period;
   for (let y = 0; y < n; y++) {
-    const scale = 0.8 + 0.35 * (y / n);
+    const scale = 0.9 + 0.2 * (y / n);
     const w = half * scale;
     const disc = 0.75 + 0.25 * smoothstep(0.1, 0.3, Math.abs((((y + phase) / (period * scale)) % 1) - 0.5));
     for (let x = Math.max(0, Math.floor(g.cx - w - 2)); x <= Math.min(n - 1, Math.ceil(g.cx + w + 2)); x++) {
       const v = Math.abs(x + 0.5 - g.cx) / w;
       if (v >= 1) continue;
       // Pedicles make the lateral edges of each body denser.
-      out[y * n + x] += 0.14 * disc * (0.75 + 0.35 * smoothstep(0.6, 0.9, v)) * (1 - smoothstep(0.9, 1, v));
+      out[y * n + x] += 0.14 * disc * (0.85 + 0.15 * smoothstep(0.6, 0.9, v)) * (1 - smoothstep(0.55, 1, v));
     }
   }
 }
@@ -173,7 +173,8 @@ function drawSpine(rng: Rng, g: ChestGeometry, out: Float32Array): void {
 /**
  * Attenuation map of a normal chest before findings, size * size, in arbitrary path-length
  * units (0 = air outside the body, about 1 = full soft tissue, higher for bone and heart).
- * vessels is the map from drawVessels, already cleared where a pneumothorax removes markings.
+ * vessels is the map from drawVessels, already cleared where a pneumothorax removes markings;
+ * fill (optional) is the share of lung air replaced by fluid or tissue at each pixel.
  */
 export function drawChestDensity(
   rng: Rng,
@@ -181,6 +182,7 @@ export function drawChestDensity(
   masks: AnatomyMasks,
   soft: Float32Array,
   vessels: Float32Array,
+  fill?: Float32Array,
 ): Float32Array {
   const n = g.size;
   const out = new Float32Array(n * n);
@@ -188,6 +190,8 @@ export function drawChestDensity(
   for (let i = 0; i < lungSoft.length; i++) lungSoft[i] = masks.right[i] | masks.left[i];
   const lungBlur = boxBlur(lungSoft, n, Math.max(1, Math.round(n / 200)), 2);
   const heartBlur = boxBlur(Float32Array.from(masks.heart), n, Math.max(1, Math.round(n / 180)), 2);
+  const blurRadius = Math.max(1, Math.round(n / 200));
+  const fillBlur = fill ? boxBlur(fill, n, blurRadius, 2) : undefined;
   const air = uniform(rng, 0.68, 0.78);
   const texture = valueNoise(rng, n, 24);
   for (let y = 0; y < n; y++) {
@@ -197,7 +201,8 @@ export function drawChestDensity(
       const l = lungBlur[i];
       // Lung bases are overlain by more soft tissue (diaphragm curvature), apices by muscle.
       const lungAir = air * (1 - 0.12 * smoothstep(0.7, 1, y / n) - 0.1 * (1 - smoothstep(0.1, 0.25, y / n)));
-      out[i] = t * (1 - l * lungAir * (1 + 0.04 * texture[i])) + l * t * vessels[i] + 0.07 * heartBlur[i] * t;
+      const kept = fillBlur ? 1 - fillBlur[i] : 1;
+      out[i] = t * (1 - l * lungAir * kept * (1 + 0.04 * texture[i])) + l * t * vessels[i] * (0.4 + 0.6 * kept) + 0.07 * heartBlur[i] * t;
     }
   }
   drawBelowDiaphragm(rng, g, soft, out);

@@ -1,6 +1,6 @@
 import type { Rng } from '../core/seeded-random';
 import { boxBlur } from './box-blur';
-import { lungSampler, lateralOffset, medialOffset, type ChestGeometry, type LungShape, type Side } from './chest-geometry';
+import { diaphragmRow, lungSampler, lateralOffset, medialOffset, type ChestGeometry, type LungShape, type Side } from './chest-geometry';
 import type { AnatomyMasks } from './draw-chest-density';
 import type { ZoneRow } from './lung-zone-rects';
 import { strokeSegment } from './stroke-segment';
@@ -22,8 +22,12 @@ export interface DrawnFinding extends FindingPlan {
   readonly mask: Uint8Array;
 }
 
-/** What the findings change: added attenuation, vessel gain (congestion), and where vessels vanish. */
+/**
+ * What the findings change: fill (0..1, the share of lung air replaced by fluid or tissue), added
+ * attenuation (pneumothorax air and pleural line), vessel gain (congestion), and where vessels vanish.
+ */
 export interface FindingLayers {
+  readonly fill: Float32Array;
   readonly delta: Float32Array;
   readonly vesselGain: Float32Array;
   readonly vesselClear: Uint8Array;
@@ -100,6 +104,7 @@ function xAt(g: ChestGeometry, lung: LungShape, y: number, p: number): number {
  */
 export function drawFindings(rng: Rng, g: ChestGeometry, plans: readonly FindingPlan[], masks: AnatomyMasks, soft: Float32Array): FindingLayers {
   const n = g.size;
+  const fill = new Float32Array(n * n);
   const delta = new Float32Array(n * n);
   const vesselGain = new Float32Array(n * n);
   const vesselClear = new Uint8Array(n * n);
@@ -115,29 +120,29 @@ export function drawFindings(rng: Rng, g: ChestGeometry, plans: readonly Finding
         case 'nodule': drawNodule(rng, g, lung, plan, field); break;
         case 'atelectasis': drawAtelectasis(rng, g, lung, plan, field); break;
         case 'effusion': drawEffusion(rng, g, lung, plan, field); break;
-        case 'pneumothorax': drawPneumothorax(rng, g, lung, plan, field, lungMask, vesselClear, delta); break;
+        case 'pneumothorax': drawPneumothorax(rng, g, lung, plan, field, lungMask, vesselClear, delta, soft); break;
         case 'edema': drawEdema(rng, g, lung, plan, field, vesselGain); break;
         default: break;
       }
       for (let i = 0; i < field.length; i++) {
         if (lungMask[i] === 0 || field[i] <= 0) continue;
         if (field[i] >= 0.5) mask[i] = 1;
-        if (plan.kind !== 'pneumothorax') delta[i] += field[i] * soft[i] * amplitude(plan);
+        if (plan.kind !== 'pneumothorax') fill[i] = Math.max(fill[i], Math.min(1, field[i] * amplitude(plan)));
       }
     }
     findings.push({ ...plan, mask });
   }
-  return { delta, vesselGain, vesselClear, findings };
+  return { fill, delta, vesselGain, vesselClear, findings };
 }
 
-/** Peak added attenuation (in soft-tissue units) of each finding. */
+/** Peak share of lung air each finding replaces. */
 function amplitude(plan: FindingPlan): number {
   switch (plan.kind) {
-    case 'consolidation': return 0.5;
-    case 'nodule': return 0.5;
-    case 'atelectasis': return 0.42;
-    case 'effusion': return 0.72;
-    case 'edema': return [0, 0.08, 0.16, 0.42][plan.severity] ?? 0.4;
+    case 'consolidation': return 0.78;
+    case 'nodule': return 0.82;
+    case 'atelectasis': return 0.7;
+    case 'effusion': return 1;
+    case 'edema': return [0, 0.14, 0.3, 0.66][plan.severity] ?? 0.6;
     default: return 0;
   }
 }
@@ -149,12 +154,12 @@ function drawConsolidation(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Fi
   const cy = big ? b0 + (b1 - b0) * uniform(rng, 0.45, 0.8) : b0 + (b1 - b0) * uniform(rng, 0.35, 0.65);
   const cx = xAt(g, lung, cy, uniform(rng, 0.35, 0.7));
   const r = lung.width * (big ? uniform(rng, 0.3, 0.4) : uniform(rng, 0.17, 0.26));
-  const noise = valueNoise(rng, n, 14);
+  const noise = valueNoise(rng, n, 18);
   const fine = valueNoise(rng, n, 48);
   const lobes = Array.from({ length: 4 + rng.int(3) }, () => ({
-    x: cx + rng.normal() * r * 0.35,
-    y: cy + rng.normal() * r * 0.35,
-    r: r * uniform(rng, 0.45, 0.75),
+    x: cx + rng.normal() * r * 0.45,
+    y: cy + rng.normal() * r * 0.45,
+    r: r * uniform(rng, 0.35, 0.7),
   }));
   const y0 = Math.max(0, Math.floor(cy - 2 * r)), y1 = Math.min(n, Math.ceil(cy + 2 * r));
   const x0 = Math.max(0, Math.floor(cx - 2 * r)), x1 = Math.min(n, Math.ceil(cx + 2 * r));
@@ -163,9 +168,9 @@ function drawConsolidation(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Fi
       let w = 0;
       for (const l of lobes) w += Math.exp(-(((x + 0.5 - l.x) ** 2 + (y + 0.5 - l.y) ** 2) / (l.r * l.r)));
       const i = y * n + x;
-      const v = w * (1 + 0.35 * noise[i]);
-      // Patchy, fluffy texture inside a fairly defined outline.
-      field[i] = smoothstep(0.35, 0.75, v) * (0.78 + 0.22 * fine[i]);
+      const v = w * (1 + 0.5 * noise[i]);
+      // Patchy, fluffy texture with an ill-defined edge.
+      field[i] = smoothstep(0.2, 0.85, v) * (0.75 + 0.25 * fine[i]);
     }
   }
   // Air bronchograms: dark branching lines inside the opacity.
@@ -215,17 +220,17 @@ function drawAtelectasis(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Find
 function drawEffusion(rng: Rng, g: ChestGeometry, lung: LungShape, plan: FindingPlan, field: Float32Array): void {
   const n = g.size;
   const h = lung.base - lung.top;
-  const level = h * (plan.severity === 1 ? uniform(rng, 0.1, 0.15) : plan.severity === 2 ? uniform(rng, 0.2, 0.3) : uniform(rng, 0.38, 0.5));
-  const soften = n * 0.012;
+  const level = h * (plan.severity === 1 ? uniform(rng, 0.08, 0.12) : plan.severity === 2 ? uniform(rng, 0.17, 0.25) : uniform(rng, 0.33, 0.43));
+  const soften = n * 0.01;
   const at = lungSampler(g, lung);
-  for (let y = Math.max(0, Math.floor(lung.base - level - h * 0.05)); y < n; y++) {
+  for (let y = Math.max(0, Math.floor(lung.base - lung.domeHeight - level - soften * 2)); y < n; y++) {
     for (let x = 0; x < n; x++) {
       const c = at(x + 0.5, y + 0.5);
       if (!c.inside) continue;
-      // Meniscus: the fluid climbs higher along the lateral chest wall.
-      const top = lung.base - level * (0.55 + 0.45 * c.p * c.p);
+      // Meniscus: fluid over the dome, climbing higher along the lateral chest wall.
+      const top = diaphragmRow(lung, c.p) - level * (0.35 + 0.65 * c.p ** 1.5);
       const v = smoothstep(top - soften, top + soften, y + 0.5);
-      field[y * n + x] = v * (0.85 + 0.15 * smoothstep(top, lung.base, y + 0.5));
+      field[y * n + x] = v * (0.88 + 0.12 * smoothstep(top, lung.base, y + 0.5));
     }
   }
 }
@@ -239,11 +244,12 @@ function drawPneumothorax(
   lungMask: Uint8Array,
   vesselClear: Uint8Array,
   delta: Float32Array,
+  soft: Float32Array,
 ): void {
   const n = g.size;
   const h = lung.base - lung.top;
-  const depth = h * (plan.severity === 1 ? uniform(rng, 0.08, 0.12) : plan.severity === 2 ? uniform(rng, 0.13, 0.18) : uniform(rng, 0.2, 0.26));
-  const gap = plan.severity === 1 ? uniform(rng, 0.12, 0.18) : plan.severity === 2 ? uniform(rng, 0.2, 0.28) : uniform(rng, 0.3, 0.4);
+  const depth = h * (plan.severity === 1 ? uniform(rng, 0.11, 0.15) : plan.severity === 2 ? uniform(rng, 0.16, 0.22) : uniform(rng, 0.24, 0.3));
+  const gap = plan.severity === 1 ? uniform(rng, 0.15, 0.2) : plan.severity === 2 ? uniform(rng, 0.22, 0.3) : uniform(rng, 0.32, 0.42);
   const region = new Uint8Array(n * n);
   const at = lungSampler(g, lung);
   for (let y = Math.max(0, Math.floor(lung.top)); y < Math.min(n, Math.ceil(lung.base)); y++) {
@@ -272,14 +278,15 @@ function drawPneumothorax(
       if (next.some((j) => region[j] === 0 && lungMask[j] === 1)) line[i] = 1;
     }
   }
-  const lineSoft = boxBlur(line, n, 1, 1);
+  const lineSoft = n >= 384 ? boxBlur(line, n, 1, 1) : line;
   for (let i = 0; i < region.length; i++) {
     if (region[i]) {
       field[i] = 1;
       vesselClear[i] = 1;
-      delta[i] -= 0.06;
+      // Air without lung tissue: darker than the aerated lung beside it.
+      delta[i] -= 0.16 * soft[i];
     }
-    delta[i] += 0.2 * lineSoft[i];
+    delta[i] += 0.3 * soft[i] * lineSoft[i];
   }
 }
 

@@ -67,7 +67,7 @@ export function generatePhantomStudy(rng: Rng, { size = 512, id = 'phantom', cre
   const layers = drawFindings(rng, g, plans, upright, soft);
   const vessels = drawVessels(rng, g, layers.vesselGain);
   for (let i = 0; i < vessels.length; i++) if (layers.vesselClear[i]) vessels[i] = 0;
-  const density = drawChestDensity(rng, g, upright, soft, vessels);
+  const density = drawChestDensity(rng, g, upright, soft, vessels, layers.fill);
   for (let i = 0; i < density.length; i++) density[i] += layers.delta[i];
 
   const angle = (Math.max(-3, Math.min(3, rng.normal() * 1.3)) * Math.PI) / 180;
