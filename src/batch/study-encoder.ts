@@ -6,7 +6,7 @@ import type { ModelManifest } from '../model/types';
 export interface DualEncoderLike {
   readonly manifest: ModelManifest;
   readonly hash: string;
-  encodeImage(image: DecodedImage): Promise<{ readonly embeddings: Float32Array }>;
+  encodeImage(image: DecodedImage, options?: { window?: DecodedImage['window'] }): Promise<{ readonly embeddings: Float32Array }>;
   encodeSentences(texts: readonly string[]): Promise<Float32Array>;
 }
 
@@ -19,7 +19,8 @@ export function toStudyEncoder(dual: DualEncoderLike, id = dual.manifest.id): St
     grid: { h: m.image.output.grid.h, w: m.image.output.grid.w },
     embeddingDim: m.embedding_dim,
     input: { width: m.image.input.width, height: m.image.input.height, resize: m.image.input.resize },
-    encodeImage: async (image) => (await dual.encodeImage(image)).embeddings,
+    // The file's own VOI window (DICOM) decides the intensities the encoder sees, as a viewer would.
+    encodeImage: async (image) => (await dual.encodeImage(image, { window: image.window })).embeddings,
     encodeSentences: (texts) => dual.encodeSentences([...texts]),
   };
 }

@@ -52,12 +52,13 @@ export async function openSet(source: FileSource, { signal }: { signal?: AbortSi
   const { manifest, problems: setProblems } = await loadSampleSet(source);
   const problems: Problem[] = [...setProblems];
   const skipped: { study: string; reason: string }[] = [];
-  const badStudies = new Set<string>();
+  // loadSampleSet leaves out every study with a problem; each such study is skipped with its reasons.
+  const loadedIds = new Set(manifest.studies.map((st) => st.id));
   for (const p of setProblems) {
-    if (p.item && (p.code === 'missing-image' || p.code === 'empty-report' || p.code === 'duplicate-study' || p.code === 'set-schema')) {
-      if (!badStudies.has(p.item)) skipped.push({ study: p.item, reason: p.message });
-      badStudies.add(p.item);
-    }
+    if (!p.item || loadedIds.has(p.item)) continue;
+    const prior = skipped.find((x) => x.study === p.item);
+    if (prior) prior.reason = `${prior.reason}; ${p.message}`;
+    else skipped.push({ study: p.item, reason: p.message });
   }
   const studies: StudyRecord[] = [];
   const reports = new Map<string, ParsedReport>();
@@ -65,20 +66,21 @@ export async function openSet(source: FileSource, { signal }: { signal?: AbortSi
   const seen = new Set<string>();
   for (const study of manifest.studies) {
     signal?.throwIfAborted();
-    if (badStudies.has(study.id) || seen.has(study.id)) continue;
+    if (seen.has(study.id)) continue;
     seen.add(study.id);
     try {
       const image = decodeImage(await source.readBytes(study.image), study.image);
       sizes.set(study.id, { width: image.width, height: image.height });
     } catch (err) {
-      const reason = `${source.label}/${study.image}: ${(err as Error).message}`;
-      problems.push({ code: 'unreadable-image', file: study.image, item: study.id, message: reason, fix: 'Replace the image with a readable PNG, JPEG or uncompressed DICOM file.' });
+      const reason = (err as Error).message;
+      problems.push({ code: 'unreadable-image', file: study.image, item: study.id, message: reason, fix: 'replace the image with a readable PNG, JPEG or uncompressed DICOM file' });
       skipped.push({ study: study.id, reason });
       continue;
     }
     const report = parseReport(study.report);
     if (report.sentences.length === 0) {
-      const reason = `study '${study.id}' has no report sentences`;
+      const reason = `study '${study.id}': the report has no sentences`;
+      problems.push({ code: 'empty-report', file: 'set.json', item: study.id, message: `set.json (${study.id}): the report has no sentences. Fix: write the report text into "report"`, fix: 'write the report text into "report"' });
       skipped.push({ study: study.id, reason });
       continue;
     }
@@ -92,7 +94,7 @@ export async function openSet(source: FileSource, { signal }: { signal?: AbortSi
     const json: unknown = JSON.parse(await source.readText(annotationPath));
     const sentencesByStudy = new Map<string, { index: number; text: string }[]>();
     for (const [id, r] of reports) sentencesByStudy.set(id, r.sentences.map((s) => ({ index: s.index, text: s.text })));
-    const loaded = await loadAnnotations(json, annotationPath, { imageSizes: sizes, sentencesByStudy });
+    const loaded = loadAnnotations(json, annotationPath, { imageSizes: sizes, sentencesByStudy, skippedStudies: new Set(skipped.map((x) => x.study)) });
     problems.push(...loaded.problems);
     for (const b of loaded.boxes) {
       if (!reports.has(b.study)) continue;

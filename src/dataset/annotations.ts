@@ -17,6 +17,8 @@ export interface AnnotationContext {
   readonly imageSizes: ReadonlyMap<string, Size>;
   /** The current sentences of each loaded study's report. */
   readonly sentencesByStudy: ReadonlyMap<string, readonly CurrentSentence[]>;
+  /** Studies already reported as skipped: their boxes are left out without a problem of their own. */
+  readonly skippedStudies?: ReadonlySet<string>;
 }
 
 /** A box whose sentence no longer matches the report; it is never re-attached by itself. */
@@ -112,7 +114,7 @@ function placeRect(rect: ImageRect, size: Size): { code: 'box-zero-area' | 'box-
  * index as a suggestion; nothing is re-attached silently. Throws DatasetError for a file that is
  * not an annotation file ('annotation-schema') or of an unknown version ('annotation-version').
  */
-export function loadAnnotations(json: unknown, file: string, { imageSizes, sentencesByStudy }: AnnotationContext): LoadedAnnotations {
+export function loadAnnotations(json: unknown, file: string, { imageSizes, sentencesByStudy, skippedStudies = new Set<string>() }: AnnotationContext): LoadedAnnotations {
   if (!isObject(json)) {
     throw new DatasetError(`the file must hold a JSON object; got ${describeJson(json)}`, { code: 'annotation-schema', file, fix: `write it as { "schema": "${ANNOTATIONS_SCHEMA}", "set", "boxes": [...] }` });
   }
@@ -185,6 +187,7 @@ export function loadAnnotations(json: unknown, file: string, { imageSizes, sente
     const size = imageSizes.get(box.study);
     const sentences = sentencesByStudy.get(box.study);
     if (size === undefined || sentences === undefined) {
+      if (skippedStudies.has(box.study)) return;
       problems.push(makeProblem('box-unknown-study', file, box.id, `study "${box.study}" is not in the set or was not loaded; the box is not checked`, `add study "${box.study}" to set.json or fix its problems, or delete the box`));
       return;
     }

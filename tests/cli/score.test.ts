@@ -108,18 +108,20 @@ describe('tessera score', () => {
     const others = ann.boxes.filter((b) => ![s0.id, s1.id, s2.id, s3.id].includes(b.study));
     if (others[2]) others[2].box = { x: 9000, y: 9000, w: 10, h: 10 }; // outside the image
     if (others[0]) others[0].box = { ...others[0].box, w: 0 }; // zero area
-    if (others[1]) others[1].sentence = { ...others[1].sentence, text: 'An edited sentence that is no longer in the report.' }; // stale
+    // Stale: the report is edited after the box was drawn on one of its sentences.
+    const edited = others[1] ? manifest.studies.find((st) => st.id === others[1].study) : undefined;
+    if (edited && others[1]) edited.report = edited.report.replace(others[1].sentence.text, 'An edited sentence that says something else.');
     await writeFile(join(bad, 'set.json'), JSON.stringify(manifest));
     await writeFile(join(bad, 'annotations.json'), JSON.stringify(ann));
     const out = join(root, 'bad-out');
     const r = await runCli(['score', '--model', MODEL, '--set', bad, '--out', out, '--no-cache']);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stderr).toMatch(new RegExp(`${s0.image}`));
-    expect(r.stderr).toMatch(/duplicate/i);
+    expect(r.stderr).toMatch(/more than once|duplicate/i);
     expect(r.stderr).toMatch(/empty|no report sentences/i);
     expect(r.stderr).toMatch(/outside/i);
     expect(r.stderr).toMatch(/zero|area/i);
-    expect(r.stderr).toMatch(/stale|no longer|changed/i);
+    expect(r.stderr).toMatch(/was drawn on .* but sentence \d+ now reads/);
     const s = await readJson<SummaryJson>(join(out, 'summary.json'));
     const skipped = s.skipped.map((x) => x.study);
     for (const id of [s0.id, s1.id, s2.id]) expect(skipped).toContain(id);

@@ -92,7 +92,8 @@ export async function runScore(argv: string[], io: CommandIo): Promise<number> {
   process.once('SIGINT', onSigint);
   try {
     const set = await openSet(createNodeFileSource(resolve(setDir)), { signal: controller.signal });
-    for (const p of set.problems) io.stderr(`tessera score: ${setDir}/${p.file}${p.item ? ` [${p.item}]` : ''}: ${p.message}${p.fix ? ` Fix: ${p.fix}` : ''}`);
+    // Each problem's message already names its file, item and fix.
+    for (const p of set.problems) io.stderr(`tessera score: ${p.message}`);
     const progress = progressPrinter(io);
     const label = shard ? `scoring shard ${shard.index}/${shard.count}` : 'scoring';
     const run = await scoreSet(set, encoders, {
