@@ -3,7 +3,9 @@ import { MIN_PHANTOM_SIZE } from './generate-phantom-study';
 export type PhantomFormat = 'png' | 'dcm' | 'mixed';
 export const PHANTOM_FORMATS: readonly PhantomFormat[] = ['png', 'dcm', 'mixed'];
 
-/** Options of a synthetic sample set. 'mixed' writes mostly 8-bit PNG with some 16-bit PNG and DICOM. */
+/**
+ * Options of a synthetic sample set. 'mixed' writes mostly 8-bit PNG with one 16-bit PNG and
+ * one DICOM (MONOCHROME2 and MONOCHROME1 in turn) in every 12 studies. */
 export interface PhantomSetOptions {
   readonly n: number;
   readonly seed: number;

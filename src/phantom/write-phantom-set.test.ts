@@ -90,12 +90,15 @@ describe('writePhantomSet', () => {
 
   it("writePhantomSet PNGs carry the synthetic marker; bitDepth 16 writes 16-bit files; 'mixed' uses all three kinds", async () => {
     const sink = memorySink();
-    await writePhantomSet({ n: 12, seed: 6, size: 128, format: 'mixed' }, sink);
+    await writePhantomSet({ n: 24, seed: 6, size: 128, format: 'mixed' }, sink);
     const names = [...sink.files.keys()].filter((k) => k.startsWith('images/'));
-    expect(names.filter((k) => k.endsWith('.dcm'))).toHaveLength(2);
+    const dicom = names.filter((k) => k.endsWith('.dcm'));
+    expect(dicom).toEqual(['images/phantom-0010.dcm', 'images/phantom-0022.dcm']);
+    const photometry = dicom.map((k) => new TextDecoder('latin1').decode(sink.files.get(k) as Uint8Array).match(/MONOCHROME[12]/)?.[0]);
+    expect(photometry).toEqual(['MONOCHROME2', 'MONOCHROME1']);
     const depths = names.filter((k) => k.endsWith('.png')).map((k) => decodeImage(sink.files.get(k) as Uint8Array, k));
     expect(depths.every((d) => d.synthetic === true)).toBe(true);
-    expect(depths.filter((d) => d.bitDepth === 16)).toHaveLength(1);
+    expect(depths.filter((d) => d.bitDepth === 16)).toHaveLength(2);
     const sixteen = memorySink();
     await writePhantomSet({ n: 1, seed: 6, size: 128, bitDepth: 16 }, sixteen);
     expect(decodeImage(sixteen.files.get('images/phantom-0001.png') as Uint8Array, 'x.png').bitDepth).toBe(16);

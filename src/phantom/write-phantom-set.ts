@@ -40,11 +40,11 @@ export function createdFromSeed(seed: number): string {
 function imageKind(format: 'png' | 'dcm' | 'mixed', bitDepth: 8 | 16, index: number): ImageKind {
   if (format === 'png') return { format: 'png', bitDepth };
   if (format === 'dcm') return { format: 'dcm', photometric: index % 2 === 0 ? 'MONOCHROME2' : 'MONOCHROME1' };
-  // Mixed: of every 12 studies, 9 are 8-bit PNG, one 16-bit PNG and one DICOM of each photometry.
+  // Mixed: of every 12 studies, 10 are 8-bit PNG, one 16-bit PNG and one DICOM, MONOCHROME2 and
+  // MONOCHROME1 in turn from one block of 12 to the next.
   const k = index % 12;
-  if (k === 3) return { format: 'png', bitDepth: 16 };
-  if (k === 7) return { format: 'dcm', photometric: 'MONOCHROME2' };
-  if (k === 10) return { format: 'dcm', photometric: 'MONOCHROME1' };
+  if (k === 4) return { format: 'png', bitDepth: 16 };
+  if (k === 9) return { format: 'dcm', photometric: Math.floor(index / 12) % 2 === 0 ? 'MONOCHROME2' : 'MONOCHROME1' };
   return { format: 'png', bitDepth: 8 };
 }
 
