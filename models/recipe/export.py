@@ -177,7 +177,6 @@ def main(argv=None):
             'untrained_seed': args.seed if args.untrained else None, 'export_opset': OPSET}
     if not args.untrained:
         training = dict(ckpt['training'])
-        training.pop('set', None)  # a local path says nothing to another machine
         card['training'] = training
     if args.evaluation:
         with open(args.evaluation, encoding='utf-8') as fh:

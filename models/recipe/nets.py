@@ -13,17 +13,16 @@ from torch import nn
 
 # (kind, out_channels, kernel, stride); the receptive field follows from these alone.
 SMALL_FIELD = [
-    ('conv', 16, 3, 2),
-    ('conv', 32, 3, 2),
+    ('conv', 24, 4, 4),  # patchify stem: early downsampling keeps training cheap on two CPU cores
     ('conv', 32, 3, 1),
-    ('conv', 64, 3, 2),
-    ('conv', 64, 3, 1),
-    ('conv', 64, 3, 1),
+    ('conv', 48, 3, 2),
+    ('conv', 48, 3, 1),
+    ('conv', 48, 3, 1),
     ('conv', 128, 2, 2),
     ('conv', 128, 1, 1),
 ]
 # Three more 3x3 layers at stride 16 widen the field by 3 * 2 * 16 = 96 px.
-WIDE_FIELD = SMALL_FIELD[:7] + [('conv', 128, 3, 1)] * 3 + SMALL_FIELD[7:]
+WIDE_FIELD = SMALL_FIELD[:6] + [('conv', 128, 3, 1)] * 3 + SMALL_FIELD[6:]
 LAYOUTS = {'small': SMALL_FIELD, 'wide': WIDE_FIELD}
 
 

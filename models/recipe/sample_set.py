@@ -144,7 +144,8 @@ def read_sample_set(folder, check_images=True):
             schema = json.load(fh)
         study_schema = schema.get('properties', {}).get('studies', {}).get('items')
         top = dict(schema)
-        top['properties'] = {k: v for k, v in schema.get('properties', {}).items() if k != 'studies'}
+        # Studies are checked one by one below, so that the first bad one can be named.
+        top['properties'] = dict(schema.get('properties', {}), studies={'type': 'array'})
         problem = _schema_problem(manifest, top, schema, 'set')
         if problem:
             raise SampleSetError('SET_INVALID', f'{set_path}: {problem} (schema {SET_SCHEMA_FILE})')

@@ -36,7 +36,8 @@ CONTRAST_TEMPERATURE = 0.07
 
 def parse_args(argv):
     p = argparse.ArgumentParser(description=__doc__, formatter_class=argparse.RawDescriptionHelpFormatter)
-    p.add_argument('--set', required=True, help='training sample-set folder (set.json, images/)')
+    p.add_argument('--set', required=True, action='append',
+                   help='training sample-set folder (set.json, images/); repeat to train on several')
     p.add_argument('--out', required=True, help='checkpoint file to write (.pt)')
     p.add_argument('--objective', choices=['local', 'global'], default='local')
     p.add_argument('--pooling', choices=['softmax', 'max'], default='softmax', help='region pooling (local objective)')
@@ -49,7 +50,7 @@ def parse_args(argv):
     p.add_argument('--max-sentences', type=int, default=6, help='sentences per study per step, at most')
     p.add_argument('--epochs', type=float, default=4.0)
     p.add_argument('--batch', type=int, default=48)
-    p.add_argument('--lr', type=float, default=1e-3)
+    p.add_argument('--lr', type=float, default=2e-3)
     p.add_argument('--weight-decay', type=float, default=1e-4)
     p.add_argument('--warmup', type=float, default=0.05, help='share of steps in linear warm-up')
     p.add_argument('--sentence-nce', type=float, default=0.0,
@@ -66,19 +67,24 @@ def parse_args(argv):
 
 
 def prepare(args):
-    manifest, _ = read_sample_set(args.set)
-    studies = manifest['studies'][: args.limit] if args.limit else manifest['studies']
-    sentences = [split_sentences(s['report']) for s in studies]
+    names, studies = [], []
+    for folder in args.set:
+        manifest, _ = read_sample_set(folder)
+        names.append(manifest.get('name'))
+        studies += [(folder, s) for s in manifest['studies']]
+    if args.limit:
+        studies = studies[: args.limit]
+    sentences = [split_sentences(s['report']) for _, s in studies]
     tokenizer = build_vocab([t for sents in sentences for t in sents])
     images = np.zeros((len(studies), args.size, args.size), dtype=np.uint8)
-    for i, s in enumerate(studies):
-        arr, _ = load_image(os.path.join(args.set, s['image']), args.size)
+    for i, (folder, s) in enumerate(studies):
+        arr, _ = load_image(os.path.join(folder, s['image']), args.size)
         images[i] = np.clip(np.rint(arr * 255.0), 0, 255).astype(np.uint8)
     positive = []
     for sents in sentences:
         keep = [t for t in sents if not is_negated(t)]
         positive.append([tokenizer.encode(t, args.max_tokens) for t in keep])
-    return manifest, studies, tokenizer, images, positive
+    return names, studies, tokenizer, images, positive
 
 
 def pool_regions(sim, pooling, temperature):
@@ -141,7 +147,7 @@ def main(argv=None):
     rng = np.random.default_rng(args.seed)
     started = time.time()
     try:
-        manifest, studies, tokenizer, images, positive = prepare(args)
+        set_names, studies, tokenizer, images, positive = prepare(args)
     except SampleSetError as err:
         print(f'train: {err}', file=sys.stderr)
         return 2
@@ -218,10 +224,11 @@ def main(argv=None):
                     break
     model.eval()
     training = {
-        'set': os.path.abspath(args.set), 'set_name': manifest.get('name'), 'studies': n, 'steps': step,
+        'sets': set_names, 'studies': n, 'steps': step,
         'epochs': round(step / max(1, steps_per_epoch), 2), 'batch': args.batch, 'lr': args.lr,
         'seed': args.seed, 'sentence_nce': args.sentence_nce, 'minutes': round((time.time() - started) / 60.0, 1),
-        'stopped_early': stopped_early, 'cut_to_time_budget': budget_cut, 'planned_epochs': args.epochs, 'torch': torch.__version__, 'threads': args.threads, 'log': log,
+        'stopped_early': stopped_early, 'cut_to_time_budget': budget_cut, 'planned_epochs': args.epochs,
+        'torch': torch.__version__, 'threads': args.threads, 'log': log,
         'negated_sentences': 'excluded from the loss',
     }
     torch.save({'config': config, 'state_dict': model.state_dict(), 'tokenizer': tokenizer.to_json(),
