@@ -3,7 +3,9 @@ import type { ModelSummary, RateSummary, ScoreSummary, SentenceRecord, Similarit
 /** Hand-built inputs for the exporter tests (synthetic; not produced by the pipeline). */
 
 export function rate(n: number, hits: number, chance: number | undefined, wilson95?: [number, number]): RateSummary {
-  return { n, hits, rate: n === 0 ? undefined : hits / n, wilson95: n === 0 ? undefined : wilson95 ?? [Math.max(0, hits / n - 0.2), Math.min(1, hits / n + 0.2)], chance };
+  const r = n === 0 ? undefined : hits / n;
+  const lift = r === undefined || chance === undefined || !(chance > 0) ? undefined : r / chance;
+  return { n, hits, rate: r, wilson95: n === 0 ? undefined : wilson95 ?? [Math.max(0, hits / n - 0.2), Math.min(1, hits / n + 0.2)], chance, lift };
 }
 
 const retrieval = {

@@ -45,14 +45,6 @@ export function orderKeys(keys: Iterable<string>): string[] {
   return [...keys].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
 }
 
-/**
- * Lift of a group's hit rate over its chance level, rate / chance; undefined when either is
- * undefined or chance is not positive. The overall lift comes from the summary itself.
- */
-export function groupLift(rate: number | undefined, chance: number | undefined): number | undefined {
-  return rate === undefined || chance === undefined || !(chance > 0) ? undefined : rate / chance;
-}
-
 /** The footer every table file carries. */
 export function researchFooter(summary: Pick<ScoreSummary, 'synthetic_set'>): string {
   return summary.synthetic_set

@@ -1,4 +1,4 @@
-import { csvLine, csvNumber, groupLift, HIT_RULE_ORDER, orderKeys, orderZoneKeys } from './export-format';
+import { csvLine, csvNumber, HIT_RULE_ORDER, orderKeys, orderZoneKeys } from './export-format';
 import type { ModelSummary, RateSummary, ScoreSummary } from './types';
 
 /** Column names of summary.csv, in order. */
@@ -33,8 +33,8 @@ function rateRow(m: ModelSummary, group: string, r: RateSummary, extra: { boot?:
 /**
  * summary.csv text: a header, then per model (in summary order) the groups 'overall',
  * 'zone:NAME' (anatomical order), 'finding:NAME' (code-point order) and 'rule:centre|overlap|upsampled'.
- * The study-bootstrap interval exists for 'overall' only and is empty elsewhere; the overall lift is
- * the summary's, a group's lift is its rate / chance. RFC 4180, CRLF line ends.
+ * The study-bootstrap interval exists for 'overall' only and is empty elsewhere; lifts come from the
+ * summary. RFC 4180, CRLF line ends.
  */
 export function summaryCsv(summary: ScoreSummary): string {
   let out = csvLine(SUMMARY_CSV_COLUMNS);
@@ -42,15 +42,15 @@ export function summaryCsv(summary: ScoreSummary): string {
     out += csvLine(rateRow(m, 'overall', m.grounding, { boot: m.grounding.bootstrap95, lift: m.grounding.lift }));
     for (const z of orderZoneKeys(Object.keys(m.by_zone))) {
       const r = m.by_zone[z];
-      out += csvLine(rateRow(m, `zone:${z}`, r, { lift: groupLift(r.rate, r.chance) }));
+      out += csvLine(rateRow(m, `zone:${z}`, r, { lift: r.lift }));
     }
     for (const f of orderKeys(Object.keys(m.by_finding))) {
       const r = m.by_finding[f];
-      out += csvLine(rateRow(m, `finding:${f}`, r, { lift: groupLift(r.rate, r.chance) }));
+      out += csvLine(rateRow(m, `finding:${f}`, r, { lift: r.lift }));
     }
     for (const rule of HIT_RULE_ORDER) {
       const r = m.by_rule?.[rule];
-      if (r) out += csvLine(rateRow(m, `rule:${rule}`, r, { lift: groupLift(r.rate, r.chance) }));
+      if (r) out += csvLine(rateRow(m, `rule:${rule}`, r, { lift: r.lift }));
     }
   }
   return out;

@@ -20,7 +20,7 @@ describe('serialiseSummary', () => {
     expect(Object.keys(parsed)).toEqual(['schema', 'set', 'n_studies', 'seed', 'models', 'comparisons', 'skipped', 'synthetic_set']);
     expect(parsed.schema).toBe('tessera.summary/1');
     expect(Object.keys(parsed.models[0]).slice(0, 4)).toEqual(['id', 'aggregator', 'hit_rule', 'grounding']);
-    expect(Object.keys(parsed.models[0].grounding)).toEqual(['n', 'hits', 'rate', 'wilson95', 'chance', 'bootstrap95', 'lift']);
+    expect(Object.keys(parsed.models[0].grounding)).toEqual(['n', 'hits', 'rate', 'wilson95', 'chance', 'lift', 'bootstrap95']);
     expect(Object.keys(parsed.models[0].by_rule)).toEqual(['centre', 'overlap', 'upsampled']);
     expect(Object.keys(parsed.models[0].retrieval).at(-1)).toBe('global');
     expect(Object.keys(parsed.comparisons[0])).toEqual(['a', 'b', 'n_pairs', 'diff', 'bootstrap95', 'mcnemar_p', 'b_only_a', 'c_only_b']);

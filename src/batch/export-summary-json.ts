@@ -9,8 +9,8 @@ const MODEL_KEYS = [
   'id', 'aggregator', 'hit_rule', 'grounding', 'by_zone', 'by_finding', 'by_rule', 'top_k_rate',
   'mean_mass_in_boxes', 'mean_cnr', 'negated', 'laterality_swap_rate', 'retrieval',
 ] as const;
-const RATE_KEYS = ['n', 'hits', 'rate', 'wilson95', 'chance'] as const;
-const GROUNDING_KEYS = [...RATE_KEYS, 'bootstrap95', 'lift'] as const;
+const RATE_KEYS = ['n', 'hits', 'rate', 'wilson95', 'chance', 'lift'] as const;
+const GROUNDING_KEYS = [...RATE_KEYS, 'bootstrap95'] as const;
 const RETRIEVAL_KEYS = [
   'image_to_report_r1', 'image_to_report_r5', 'image_to_report_r10', 'report_to_image_r1',
   'report_to_image_r5', 'report_to_image_r10', 'image_to_report_median_rank', 'report_to_image_median_rank',

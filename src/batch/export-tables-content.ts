@@ -1,4 +1,4 @@
-import { groupLift, orderKeys, orderZoneKeys } from './export-format';
+import { orderKeys, orderZoneKeys } from './export-format';
 import type { ModelSummary, RateSummary, ScoreSummary } from './types';
 
 /**
@@ -114,7 +114,7 @@ function groupTable(
     for (const m of summary.models) {
       const r = pick(m)[k];
       if (!r) continue;
-      rows.push([k, m.id, String(r.n), rate3(r.rate), interval(r.wilson95), rate3(r.chance), fixed(groupLift(r.rate, r.chance), 2)]);
+      rows.push([k, m.id, String(r.n), rate3(r.rate), interval(r.wilson95), rate3(r.chance), fixed(r.lift, 2)]);
     }
   }
   return {

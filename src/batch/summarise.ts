@@ -29,7 +29,7 @@ function rateOf(records: readonly SentenceRecord[], rule: HitRule): RateSummary 
     chance += r.chance[rule];
   }
   const s = summariseRate(hits, records.length, chance);
-  return { n: s.n, hits: s.hits, rate: s.rate, wilson95: s.wilson95, chance: s.chance };
+  return { n: s.n, hits: s.hits, rate: s.rate, wilson95: s.wilson95, chance: s.chance, lift: s.lift };
 }
 
 function groupRates(records: readonly SentenceRecord[], keysOf: (r: SentenceRecord) => readonly string[], rule: HitRule): Record<string, RateSummary> {
@@ -77,7 +77,6 @@ export function summariseModel(run: ModelRun, opts: SummaryOptions): ModelSummar
     grounding: {
       ...overall,
       bootstrap95: clusterBootstrapRate(studyClusters(scored, hitRule), { replicates, seed }),
-      lift: overall.rate !== undefined && overall.chance ? overall.rate / overall.chance : undefined,
     },
     by_zone: groupRates(scored, (r) => r.zones, hitRule),
     by_finding: groupRates(scored, (r) => (r.finding ? [r.finding] : ['(unlabelled)']), hitRule),

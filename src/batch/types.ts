@@ -30,13 +30,14 @@ export interface RateSummary {
   readonly rate: number | undefined;
   readonly wilson95: readonly [number, number] | undefined;
   readonly chance: number | undefined; // mean chance level over the group's sentences
+  readonly lift: number | undefined; // rate / chance
 }
 
 export interface ModelSummary {
   readonly id: string;
   readonly aggregator: string; // formatted, e.g. 'max', 'softmax:0.1'
   readonly hit_rule: HitRule;
-  readonly grounding: RateSummary & { readonly bootstrap95: readonly [number, number] | undefined; readonly lift: number | undefined };
+  readonly grounding: RateSummary & { readonly bootstrap95: readonly [number, number] | undefined };
   readonly by_zone: Readonly<Record<string, RateSummary>>;
   readonly by_finding: Readonly<Record<string, RateSummary>>;
   readonly by_rule: Readonly<Record<HitRule, RateSummary>>;
