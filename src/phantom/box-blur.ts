@@ -24,19 +24,29 @@ function blurRows(src: Float32Array, dst: Float32Array, size: number, r: number,
     for (let k = -r; k <= r; k++) acc += src[row + Math.min(last, Math.max(0, k))];
     for (let x = 0; x < size; x++) {
       dst[row + x] = acc * norm;
-      acc += src[row + Math.min(last, x + r + 1)] - src[row + Math.max(0, x - r)];
+      // Clamped indices only near the two ends; the interior reads the window directly.
+      const add = x + r + 1 <= last ? src[row + x + r + 1] : src[row + last];
+      const sub = x - r >= 0 ? src[row + x - r] : src[row];
+      acc += add - sub;
     }
   }
 }
 
 function blurCols(src: Float32Array, dst: Float32Array, size: number, r: number, norm: number): void {
   const last = size - 1;
-  for (let x = 0; x < size; x++) {
-    let acc = 0;
-    for (let k = -r; k <= r; k++) acc += src[Math.min(last, Math.max(0, k)) * size + x];
-    for (let y = 0; y < size; y++) {
-      dst[y * size + x] = acc * norm;
-      acc += src[Math.min(last, y + r + 1) * size + x] - src[Math.max(0, y - r) * size + x];
+  // Row-by-row running sums over all columns at once keep memory access sequential.
+  const acc = new Float64Array(size);
+  for (let k = -r; k <= r; k++) {
+    const row = Math.min(last, Math.max(0, k)) * size;
+    for (let x = 0; x < size; x++) acc[x] += src[row + x];
+  }
+  for (let y = 0; y < size; y++) {
+    const out = y * size;
+    const addRow = Math.min(last, y + r + 1) * size;
+    const subRow = Math.max(0, y - r) * size;
+    for (let x = 0; x < size; x++) {
+      dst[out + x] = acc[x] * norm;
+      acc[x] += src[addRow + x] - src[subRow + x];
     }
   }
 }

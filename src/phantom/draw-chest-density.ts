@@ -95,14 +95,14 @@ function drawRibs(rng: Rng, g: ChestGeometry, out: Float32Array): void {
     const h = lung.base - lung.top;
     const count = 10;
     const spacing = (h * uniform(rng, 0.95, 1.05)) / 9.2;
-    const thick = n * uniform(rng, 0.018, 0.024);
+    const thick = n * uniform(rng, 0.024, 0.03);
     const reach = g.mediastinumHalfWidth + lung.width + n * 0.03;
     const start = n * 0.025;
     for (let r = 0; r < count; r++) {
       const y0 = lung.top - n * 0.035 + r * spacing * (1 + r * 0.012);
       const rise = n * uniform(rng, 0.03, 0.045);
       const drop = n * uniform(rng, 0.12, 0.16) * (0.7 + r * 0.04);
-      const amp = uniform(rng, 0.12, 0.16);
+      const amp = uniform(rng, 0.09, 0.13);
       for (let d = start; d < reach; d += 1) {
         const u = (d - start) / (reach - start);
         const yc = y0 - rise * Math.sin(Math.PI * Math.min(1, u * 1.3)) + drop * u * u;
@@ -140,7 +140,7 @@ function drawClavicles(rng: Rng, g: ChestGeometry, out: Float32Array): void {
   const top = Math.min(g.right.top, g.left.top);
   for (const sign of [-1, 1]) {
     const ys = top + n * uniform(rng, 0.03, 0.06);
-    const lift = n * uniform(rng, 0.03, 0.06);
+    const lift = n * uniform(rng, 0.045, 0.075);
     const thick = n * uniform(rng, 0.022, 0.03);
     const from = n * 0.035, to = n * uniform(rng, 0.28, 0.33);
     for (let d = from; d < to; d += 1) {
@@ -225,7 +225,9 @@ function drawBelowDiaphragm(rng: Rng, g: ChestGeometry, soft: Float32Array, out:
   for (let x = 0; x < n; x++) {
     const dx = x + 0.5 - g.cx;
     const lung = dx < 0 ? g.right : g.left;
-    const yd = rowBelow(lung, Math.abs(dx));
+    // Blend the two domes across the midline so the abdomen has no seam under the heart.
+    const w = smoothstep(-g.mediastinumHalfWidth, g.mediastinumHalfWidth, dx);
+    const yd = (1 - w) * rowBelow(g.right, Math.abs(dx)) + w * rowBelow(g.left, Math.abs(dx));
     for (let y = Math.max(0, Math.floor(yd)); y < n; y++) {
       const i = y * n + x;
       // The liver under the right dome and the gastric bubble under the left one.

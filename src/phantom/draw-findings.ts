@@ -214,7 +214,14 @@ function drawAtelectasis(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Find
   const thick = n * uniform(rng, 0.008, 0.014);
   const buf = new Float32Array(n * n);
   strokeSegment(buf, n, { x0: cx - Math.cos(tilt) * half, y0: cy - Math.sin(tilt) * half, x1: cx + Math.cos(tilt) * half, y1: cy + Math.sin(tilt) * half }, thick, thick * 0.6, 1);
-  for (let i = 0; i < field.length; i++) field[i] = buf[i];
+  const texture = valueNoise(rng, n, 24);
+  // A band that is denser in its middle and fades towards both ends.
+  const ux = Math.cos(tilt), uy = Math.sin(tilt);
+  for (let i = 0; i < field.length; i++) {
+    if (buf[i] === 0) continue;
+    const along = Math.abs((((i % n) + 0.5 - cx) * ux + (Math.floor(i / n) + 0.5 - cy) * uy) / half);
+    field[i] = buf[i] * (1 - 0.6 * smoothstep(0.6, 1.05, along)) * (0.85 + 0.15 * texture[i]);
+  }
 }
 
 function drawEffusion(rng: Rng, g: ChestGeometry, lung: LungShape, plan: FindingPlan, field: Float32Array): void {

@@ -17,8 +17,8 @@ describe('rotateImage', () => {
     m[0] = 1;
     expect(rotateMask(m, 5, Math.PI / 2)[4]).toBe(1);
   });
-  it('rotateImage keeps a constant image constant away from the corners', () => {
-    const out = rotateImage(new Float32Array(121).fill(0.5), 11, 0.05, 0);
-    expect(out[5 * 11 + 5]).toBeCloseTo(0.5, 6);
+  it('rotateImage keeps a constant image constant, corners included (edge replication)', () => {
+    const out = rotateImage(new Float32Array(121).fill(0.5), 11, 0.3);
+    for (const v of out) expect(v).toBeCloseTo(0.5, 6);
   });
 });

@@ -1,10 +1,10 @@
 /**
  * Rotates a square row-major image by `angle` radians about its centre (positive turns the
- * content clockwise on screen, y pointing down), sampling the source bilinearly; pixels whose
- * source falls outside are set to `fill`. Angle 0 returns a copy.
+ * content clockwise on screen, y pointing down), sampling the source bilinearly; a source point
+ * outside the image takes the nearest edge pixel. Angle 0 returns a copy.
  */
-export function rotateImage(src: Float32Array, size: number, angle: number, fill = 0): Float32Array {
-  if (angle === 0) return Float32Array.from(src);
+export function rotateImage(src: Float32Array, size: number, angle: number): Float32Array {
+  if (angle === 0 || size < 2) return Float32Array.from(src);
   const out = new Float32Array(size * size);
   const c = (size - 1) / 2;
   const cos = Math.cos(angle), sin = Math.sin(angle);
@@ -12,12 +12,9 @@ export function rotateImage(src: Float32Array, size: number, angle: number, fill
   for (let y = 0; y < size; y++) {
     for (let x = 0; x < size; x++) {
       const dx = x - c, dy = y - c;
-      const sx = cos * dx + sin * dy + c;
-      const sy = -sin * dx + cos * dy + c;
-      if (sx < 0 || sy < 0 || sx > last || sy > last) {
-        out[y * size + x] = fill;
-        continue;
-      }
+      // Edge replication keeps the rotated corners from turning black.
+      const sx = Math.min(last, Math.max(0, cos * dx + sin * dy + c));
+      const sy = Math.min(last, Math.max(0, -sin * dx + cos * dy + c));
       const ix = Math.min(last - 1, Math.floor(sx)), iy = Math.min(last - 1, Math.floor(sy));
       const tx = sx - ix, ty = sy - iy;
       const i = iy * size + ix;
