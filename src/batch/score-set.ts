@@ -2,11 +2,12 @@ import type { Aggregator, GridShape, HitRule, ImageRect, ResizeTransform } from 
 import type { DecodedImage } from '../dataset/types';
 import type { SentenceRecord, SimilarityDump } from './types';
 import type { StudyEmbeddings } from '../core/study-score-matrix';
-import { computeSimilarity, l2Normalise } from '../core/similarity-matrix';
+import { computeSimilarityWithNormalisedCells, l2Normalise } from '../core/similarity-matrix';
 import { poolRegions } from '../core/pool-regions';
 import { groundSentence } from '../core/ground-sentence';
 import { computeResizeTransform } from '../core/resize-transform';
 import { gridCellRects } from '../core/grid-geometry';
+import { prepareStudyGeometry } from '../core/hit-rules';
 import { createRng } from '../core/seeded-random';
 import { findingOfSentence } from './sentence-finding';
 import { loadStudy, viewBoxes, type LoadedStudy, type OpenedSet } from './study-inputs';
@@ -97,11 +98,12 @@ export async function scoreStudy(
   const imageSize = { width: loaded.image.width, height: loaded.image.height };
   const transform = computeResizeTransform(imageSize, { width: encoder.input.width, height: encoder.input.height }, encoder.input.resize);
   const cells = gridCellRects(transform, grid);
+  const geometry = prepareStudyGeometry(transform, grid, cells);
   const sentences = loaded.report.sentences;
   const sentenceEmb = await encoder.encodeSentences(sentences.map((s) => s.text));
   const cellsNorm = l2Normalise(embeddings, nCells, dim);
   const sentNorm = l2Normalise(sentenceEmb, sentences.length, dim);
-  const sim = computeSimilarity(sentNorm, sentences.length, cellsNorm, nCells, dim);
+  const sim = computeSimilarityWithNormalisedCells(sentNorm, sentences.length, cellsNorm, nCells, dim);
   const records: SentenceRecord[] = [];
   const dumps: SimilarityDump[] = [];
   const retrievalRows: number[] = [];
@@ -109,7 +111,7 @@ export async function scoreStudy(
     const sentence = sentences[s];
     const values = sim.data.subarray(s * nCells, (s + 1) * nCells);
     const boxes = viewBoxes(loaded.boxesBySentence.get(sentence.index));
-    const g = groundSentence({ values, grid, cells, transform, imageSize, boxes: boxes.rects, tolerancePx, topK });
+    const g = groundSentence({ values, grid, cells, transform, imageSize, boxes: boxes.rects, tolerancePx, topK, geometry });
     const scored = boxes.rects.length > 0 && !sentence.negated;
     if (!sentence.negated) retrievalRows.push(s);
     records.push({
