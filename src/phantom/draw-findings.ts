@@ -65,7 +65,9 @@ export function planFindings(rng: Rng): FindingPlan[] {
     taken.add(`${kind}:${side}`);
     plans.push(planOne(rng, kind, side));
   }
-  return plans;
+  // A focal opacity drawn inside the air of a pneumothorax would make no sense: keep that lung clear.
+  const ptx = plans.find((p) => p.kind === 'pneumothorax');
+  return ptx ? plans.filter((p) => p === ptx || p.side !== ptx.side || p.kind === 'effusion') : plans;
 }
 
 function planOne(rng: Rng, kind: FindingKind, side: Side): FindingPlan {
@@ -96,6 +98,32 @@ function rowBand(lung: LungShape, row: ZoneRow): [number, number] {
 function xAt(g: ChestGeometry, lung: LungShape, y: number, p: number): number {
   const m = medialOffset(g, lung, y), l = lateralOffset(g, lung, y);
   return g.cx + lung.sign * (m + p * (l - m));
+}
+
+/**
+ * A point in a lung's zone row: row fraction and lung fraction drawn from the given ranges, kept
+ * only when it and four points `margin` away all lie in the lung field (lower zones dip under
+ * the dome medially). After 40 tries the row's lateral middle is used, which always lies inside.
+ */
+function placeInLung(
+  rng: Rng,
+  g: ChestGeometry,
+  lung: LungShape,
+  band: [number, number],
+  rows: [number, number],
+  across: [number, number],
+  margin: number,
+): { x: number; y: number } {
+  const inside = lungSampler(g, lung);
+  const ok = (x: number, y: number): boolean =>
+    [[0, 0], [margin, 0], [-margin, 0], [0, margin], [0, -margin]].every(([dx, dy]) => inside(x + dx, y + dy).inside);
+  for (let k = 0; k < 40; k++) {
+    const y = band[0] + (band[1] - band[0]) * uniform(rng, rows[0], rows[1]);
+    const x = xAt(g, lung, y, uniform(rng, across[0], across[1]));
+    if (ok(x, y)) return { x, y };
+  }
+  const y = band[0] + (band[1] - band[0]) * 0.35;
+  return { x: xAt(g, lung, y, 0.6), y };
 }
 
 /**
@@ -151,8 +179,7 @@ function drawConsolidation(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Fi
   const n = g.size;
   const [b0, b1] = rowBand(lung, plan.row);
   const big = plan.severity >= 2;
-  const cy = big ? b0 + (b1 - b0) * uniform(rng, 0.45, 0.8) : b0 + (b1 - b0) * uniform(rng, 0.35, 0.65);
-  const cx = xAt(g, lung, cy, uniform(rng, 0.35, 0.7));
+  const { x: cx, y: cy } = placeInLung(rng, g, lung, [b0, b1], big ? [0.45, 0.8] : [0.35, 0.65], [0.35, 0.7], lung.width * 0.15);
   const r = lung.width * (big ? uniform(rng, 0.3, 0.4) : uniform(rng, 0.17, 0.26));
   const noise = valueNoise(rng, n, 18);
   const fine = valueNoise(rng, n, 48);
@@ -186,8 +213,7 @@ function drawConsolidation(rng: Rng, g: ChestGeometry, lung: LungShape, plan: Fi
 function drawNodule(rng: Rng, g: ChestGeometry, lung: LungShape, plan: FindingPlan, field: Float32Array): void {
   const n = g.size;
   const [b0, b1] = rowBand(lung, plan.row);
-  const cy = b0 + (b1 - b0) * uniform(rng, 0.3, 0.7);
-  const cx = xAt(g, lung, cy, uniform(rng, 0.35, 0.75));
+  const { x: cx, y: cy } = placeInLung(rng, g, lung, [b0, b1], [0.3, 0.7], [0.35, 0.75], n * 0.04);
   const r = n * uniform(rng, 0.014, 0.026);
   const edge = Math.max(0.8, n / 300);
   const wobble = [rng.normal() * 0.08, rng.next() * 6.283, rng.normal() * 0.06, rng.next() * 6.283];
@@ -206,8 +232,7 @@ function drawNodule(rng: Rng, g: ChestGeometry, lung: LungShape, plan: FindingPl
 function drawAtelectasis(rng: Rng, g: ChestGeometry, lung: LungShape, plan: FindingPlan, field: Float32Array): void {
   const n = g.size;
   const [b0, b1] = rowBand(lung, plan.row);
-  const cy = b0 + (b1 - b0) * uniform(rng, 0.3, 0.65);
-  const cx = xAt(g, lung, cy, uniform(rng, 0.4, 0.6));
+  const { x: cx, y: cy } = placeInLung(rng, g, lung, [b0, b1], [0.3, 0.65], [0.4, 0.6], n * 0.03);
   const half = lung.width * uniform(rng, 0.22, 0.32);
   // Plate-like bands run roughly horizontally, often rising laterally.
   const tilt = uniform(rng, -0.15, 0.35) * -lung.sign;

@@ -147,7 +147,7 @@ function expose(rng: Rng, density: Float32Array, n: number): Float32Array {
   }
   const radius = Math.max(0, Math.round((n / 256) * uniform(rng, 0.4, 1.6)));
   const blurred = radius > 0 ? boxBlur(out, n, radius, 1) : out;
-  const sigma = uniform(rng, 0.008, 0.025);
+  const sigma = uniform(rng, 0.006, 0.018);
   // Noise drawn through a table of sorted Gaussian samples (an empirical inverse CDF): one uniform
   // per pixel instead of a Box-Muller pair.
   const table = Float32Array.from({ length: 1024 }, () => rng.normal()).sort();
