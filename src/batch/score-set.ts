@@ -66,6 +66,8 @@ export interface SetRun {
   /** Studies scored by every model, with their positions. */
   readonly scored: { readonly study: string; readonly position: number }[];
   readonly nStudies: number;
+  /** Image encodings this run computed, and those it read from the store. */
+  readonly encodings: { computed: number; fromStore: number };
 }
 
 /** The retrieval pool: all positions when n <= size, else a seeded sample of `size`, ascending. */
@@ -168,6 +170,7 @@ export async function scoreSet(set: OpenedSet, encoders: readonly StudyEncoder[]
   const runs: ModelRun[] = encoders.map((e) => ({ model: e.id, records: [], pool: [], dumps: [], dim: e.embeddingDim }));
   const failures: { study: string; reason: string; position: number }[] = [];
   const scored: { study: string; position: number }[] = [];
+  const encodings = { computed: 0, fromStore: 0 };
   let done = 0;
   for (const position of positions) {
     signal?.throwIfAborted();
@@ -183,8 +186,10 @@ export async function scoreSet(set: OpenedSet, encoders: readonly StudyEncoder[]
     try {
       for (const encoder of encoders) {
         let embeddings = store ? await store.get(encoder.hash, loaded.bytes) : undefined;
-        if (!embeddings) {
+        if (embeddings) encodings.fromStore++;
+        else {
           embeddings = await encoder.encodeImage(loaded.image);
+          encodings.computed++;
           if (store) await store.set(encoder.hash, loaded.bytes, embeddings);
         }
         perModel.push(await scoreStudy(encoder, loaded, embeddings, { aggregator, tolerancePx, topK, dumpSimilarity }));
@@ -203,5 +208,5 @@ export async function scoreSet(set: OpenedSet, encoders: readonly StudyEncoder[]
     done++;
     onProgress?.({ model: encoders.map((e) => e.id).join(', '), done, total: positions.length, study: study.id });
   }
-  return { runs, setSkipped: set.skipped, failures, positions, scored, nStudies: n };
+  return { runs, setSkipped: set.skipped, failures, positions, scored, nStudies: n, encodings };
 }

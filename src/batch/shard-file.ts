@@ -109,7 +109,7 @@ export function parseShard(jsonText: string, embeddingBytes: Uint8Array, file: s
     settings: j.settings,
     shard: j.shard,
     syntheticSet: j.syntheticSet,
-    run: { runs, setSkipped: j.setSkipped, failures: [...j.failures], positions: [...j.positions], scored: [...j.scored], nStudies: j.nStudies },
+    run: { runs, setSkipped: j.setSkipped, failures: [...j.failures], positions: [...j.positions], scored: [...j.scored], nStudies: j.nStudies, encodings: { computed: 0, fromStore: 0 } },
   };
 }
 
@@ -160,6 +160,7 @@ export function mergeShards(shards: readonly Shard[]): Shard {
       positions: [...covered].sort((a, b) => a - b),
       scored: shards.flatMap((s) => s.run.scored).sort((a, b) => a.position - b.position),
       nStudies: first.run.nStudies,
+      encodings: { computed: 0, fromStore: 0 },
     },
   };
 }

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cp, mkdtemp, readFile, readdir, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { spawn } from 'node:child_process';
 import { runCli } from './run-cli';
 
 const MODEL = 'tests/fixtures/tiny-model';
@@ -67,6 +68,11 @@ describe('tessera score', () => {
     const rb = await runCli([...args, '--out', b, '--cache', join(root, 'cache')]);
     expect(ra.code, ra.stderr).toBe(0);
     expect(rb.code, rb.stderr).toBe(0);
+    expect(rb.stderr).toMatch(/image embeddings: 16 encoded, 0 read from the cache/);
+    // A second run over the same set reads every image embedding from the cache.
+    const rc = await runCli([...args, '--out', join(root, 'det-c'), '--cache', join(root, 'cache')]);
+    expect(rc.stderr).toMatch(/image embeddings: 0 encoded, 16 read from the cache/);
+    expect(await readFile(join(root, 'det-c', 'summary.json'), 'utf8')).toBe(await readFile(join(a, 'summary.json'), 'utf8'));
     const sa = await readFile(join(a, 'summary.json'), 'utf8');
     expect(await readFile(join(b, 'summary.json'), 'utf8')).toBe(sa);
     const s = JSON.parse(sa) as SummaryJson;
@@ -142,6 +148,25 @@ describe('tessera score', () => {
     const rb = await runCli(['score', '--model', broken, '--set', set, '--out', join(root, 'broken-out')]);
     expect(rb.code).toBe(2);
     expect(rb.stderr).toMatch(/text-encoder\.onnx/);
+  });
+
+  it('score stops cleanly on Ctrl-C (SIGINT): exit 130 and no outputs written', async () => {
+    const big = join(root, 'big');
+    const made = await runCli(['phantom', '--n', '60', '--seed', '78', '--out', big, '--size', '256']);
+    expect(made.code, made.stderr).toBe(0);
+    const out = join(root, 'interrupted');
+    const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/main.ts', 'score', '--model', MODEL, '--set', big, '--out', out, '--no-cache'], { stdio: ['ignore', 'pipe', 'pipe'] });
+    let stderr = '';
+    const code = await new Promise<number>((done) => {
+      child.stderr.on('data', (d: Buffer) => {
+        stderr += d.toString();
+        if (/scoring: \d+\/60/.test(stderr) && !child.killed) child.kill('SIGINT');
+      });
+      child.on('close', (c) => done(c ?? -1));
+    });
+    expect(code, stderr).toBe(130);
+    expect(stderr).toMatch(/cancelled; nothing was written/);
+    await expect(readdir(out)).rejects.toThrow();
   });
 
   it('score rejects bad options with a usage message and exit code 2', async () => {

@@ -110,6 +110,7 @@ export async function runScore(argv: string[], io: CommandIo): Promise<number> {
       onProgress: (p) => progress(label, p.done, p.total),
     });
     for (const f of run.failures) io.stderr(`tessera score: skipped study '${f.study}': ${f.reason}`);
+    io.stderr(`image embeddings: ${run.encodings.computed} encoded, ${run.encodings.fromStore} read from the cache`);
     const settings: RunSettings = {
       set: set.manifest.name,
       models: encoders.map((e) => ({ id: e.id, hash: e.hash })),
