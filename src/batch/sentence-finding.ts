@@ -14,11 +14,18 @@ const FINDING_WORDS: Readonly<Record<string, readonly string[]>> = {
 };
 
 /**
- * The labelled finding a sentence speaks of: among the study's labelled findings, the one whose
+ * The labelled finding a sentence speaks of: the set's own per-sentence label
+ * (labels.sentences[].{index, finding}) when present; else, among the study's labelled findings, the one whose
  * words appear in the sentence, preferring one whose zones meet the sentence's box zones.
  * Returns '' when the study has no labels or none is named.
  */
 export function findingOfSentence(sentence: ParsedSentence, study: StudyRecord, boxZones: readonly ZoneLabel[]): string {
+  // A set may label each sentence's finding directly (the phantom generator does); that wins.
+  const perSentence = study.labels?.sentences;
+  if (Array.isArray(perSentence)) {
+    const own = perSentence.find((x): x is { index: number; finding: string } => typeof x === 'object' && x !== null && (x as { index?: unknown }).index === sentence.index && typeof (x as { finding?: unknown }).finding === 'string');
+    if (own) return own.finding;
+  }
   const labels = study.labels?.findings ?? [];
   const text = sentence.text.toLowerCase();
   const named = labels.filter((l) => (FINDING_WORDS[l.finding] ?? [l.finding.toLowerCase()]).some((w) => text.includes(w)));
