@@ -1,4 +1,5 @@
 import type { Aggregator, GridShape, HitRule, ImagePoint, ImageRect, ZoneLabel } from '../core/types';
+import type { RetrievalSummary } from '../core/retrieval-metrics';
 
 /** One model x study x sentence, as scored by the batch pipeline (one row of sentences.csv). */
 export interface SentenceRecord {
@@ -46,17 +47,8 @@ export interface ModelSummary {
   readonly mean_cnr: number | undefined;
   readonly negated: { readonly n: number }; // negated sentences with boxes, reported apart
   readonly laterality_swap_rate: number | undefined; // swaps / misses
-  readonly retrieval: {
-    readonly image_to_report_r1: number | undefined;
-    readonly image_to_report_r5: number | undefined;
-    readonly image_to_report_r10: number | undefined;
-    readonly report_to_image_r1: number | undefined;
-    readonly report_to_image_r5: number | undefined;
-    readonly report_to_image_r10: number | undefined;
-    readonly image_to_report_median_rank: number | undefined;
-    readonly report_to_image_median_rank: number | undefined;
-    readonly global?: Omit<ModelSummary['retrieval'], 'global'>;
-  };
+  /** Local-score retrieval, with the global (mean-pooled) score's beside it. */
+  readonly retrieval: RetrievalSummary & { readonly global?: RetrievalSummary };
 }
 
 export interface ModelComparison {

@@ -331,12 +331,25 @@ export function encodePng({ width, height, bitDepth, data, text = {} }: PngEncod
     prevRow = cur.slice();
   }
 
+  return assemblePng({ width, height, bitDepth, colourType: 0 }, raw, text);
+}
+
+/**
+ * Assembles a PNG file from already filtered scanlines (each row prefixed by its filter type byte):
+ * signature, IHDR (no interlace), tEXt chunks in sorted keyword order, one zlib-wrapped IDAT
+ * (RFC 1950) and IEND. Used by every PNG writer of the project, greyscale and colour.
+ */
+export function assemblePng(
+  header: { readonly width: number; readonly height: number; readonly bitDepth: 8 | 16; readonly colourType: 0 | 6 },
+  filteredRows: Uint8Array,
+  text: Readonly<Record<string, string>> = {},
+): Uint8Array {
   const ihdr = new Uint8Array(13);
   const hv = new DataView(ihdr.buffer);
-  hv.setUint32(0, width);
-  hv.setUint32(4, height);
-  ihdr[8] = bitDepth;
-  ihdr[9] = 0;
+  hv.setUint32(0, header.width);
+  hv.setUint32(4, header.height);
+  ihdr[8] = header.bitDepth;
+  ihdr[9] = header.colourType;
   const parts: Uint8Array[] = [Uint8Array.from(SIGNATURE), chunk('IHDR', ihdr)];
   for (const key of Object.keys(text).sort()) {
     if (key.length < 1 || key.length > 79 || key !== key.trim()) throw new RangeError(`'text' keyword must be 1-79 characters without leading or trailing spaces; got '${key}'`);
@@ -347,14 +360,14 @@ export function encodePng({ width, height, bitDepth, data, text = {} }: PngEncod
     body.set(v, k.length + 1);
     parts.push(chunk('tEXt', body));
   }
-  parts.push(chunk('IDAT', zlibSync(raw, { level: 6 })));
+  parts.push(chunk('IDAT', zlibSync(filteredRows, { level: 6 })));
   parts.push(chunk('IEND', new Uint8Array(0)));
-  const size = parts.reduce((s, p) => s + p.length, 0);
+  const size = parts.reduce((n, part) => n + part.length, 0);
   const out = new Uint8Array(size);
   let o = 0;
-  for (const p of parts) {
-    out.set(p, o);
-    o += p.length;
+  for (const part of parts) {
+    out.set(part, o);
+    o += part.length;
   }
   return out;
 }
