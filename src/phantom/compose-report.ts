@@ -246,7 +246,7 @@ export function composeReport(rng: Rng, facts: ReportFacts): { text: string; sen
       const targets: BoxTarget[] = [];
       for (const z of named) for (const u of unit) if (u.zones.includes(z) || kind === 'edema') targets.push({ finding: u.index, zone: z });
       add(findings, { text: cap(built.text), negated: false, uncertain: built.uncertain, zones: named, finding: kind, targets }, 'findings');
-      add(impression, { text: impressionText(rng, kind, unit, loc.phrase, hedge, oedema), negated: false, uncertain: hedge, zones: named, finding: kind, targets }, 'impression');
+      add(impression, { text: impressionText(rng, kind, unit, loc.phrase, named, hedge, oedema), negated: false, uncertain: hedge, zones: named, finding: kind, targets }, 'impression');
     }
   }
 
@@ -286,13 +286,15 @@ export function composeReport(rng: Rng, facts: ReportFacts): { text: string; sen
   return { text, sentences };
 }
 
-function impressionText(rng: Rng, kind: FindingKind, unit: readonly ReportFinding[], loc: string, hedge: boolean, oedema: string): string {
+function impressionText(rng: Rng, kind: FindingKind, unit: readonly ReportFinding[], loc: string, named: readonly LungZone[], hedge: boolean, oedema: string): string {
   const f = unit[0];
   const lead = (s: string): string => cap(hedge ? `possible ${s}` : s);
   switch (kind) {
     case 'consolidation': return lead(pick(rng, [`consolidation in ${loc}.`, `airspace opacity in ${loc}.`]));
     case 'nodule': return lead(pick(rng, [`nodule in ${loc}.`, `pulmonary nodule in ${loc}.`]));
-    case 'effusion': return unit.length === 2 ? 'Bilateral basal pleural effusions.' : lead(`${f.side} basal pleural effusion.`);
+    case 'effusion':
+      if (unit.length === 2) return 'Bilateral basal pleural effusions.';
+      return lead(named.length === 2 ? `pleural effusion in ${loc}.` : `${f.side} basal pleural effusion.`);
     case 'pneumothorax': return lead(f.variant === 'apical' ? `${f.side} apical pneumothorax.` : `pneumothorax in ${loc}.`);
     case 'atelectasis': return lead(`atelectasis in ${loc}.`);
     default: return cap(`${['', 'mild vascular congestion', 'interstitial', 'alveolar'][f.severity]}${f.severity >= 2 ? ` ${oedema}` : ''} in both perihilar regions.`);

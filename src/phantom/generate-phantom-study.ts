@@ -9,7 +9,7 @@ import { drawChestDensity, drawSoftTissue, drawVessels } from './draw-chest-dens
 import { drawFindings, planFindings, type FindingKind } from './draw-findings';
 import { lungZoneRects } from './lung-zone-rects';
 import { maskArea, maskBounds } from './mask-bounds';
-import { rotateImage, rotateMask } from './rotate-image';
+import { transformImage, transformMask, type PlaneTransform } from './transform-image';
 
 export const MIN_PHANTOM_SIZE = 128;
 export const PHANTOM_ANNOTATOR = 'phantom-generator';
@@ -70,11 +70,16 @@ export function generatePhantomStudy(rng: Rng, { size = 512, id = 'phantom', cre
   const density = drawChestDensity(rng, g, upright, soft, vessels, layers.fill);
   for (let i = 0; i < density.length; i++) density[i] += layers.delta[i];
 
-  const angle = (Math.max(-3, Math.min(3, rng.normal() * 1.3)) * Math.PI) / 180;
-  const rotated = rotateImage(density, n, angle);
-  const right = rotateMask(upright.right, n, angle);
-  const left = rotateMask(upright.left, n, angle);
-  const heart = rotateMask(upright.heart, n, angle);
+  // Patient positioning: a small rotation, distance to the detector (zoom) and a vertical offset.
+  const pose: PlaneTransform = {
+    angle: (Math.max(-3, Math.min(3, rng.normal() * 1.3)) * Math.PI) / 180,
+    scale: uniform(rng, 0.93, 1.05),
+    shiftY: n * uniform(rng, -0.02, 0.02),
+  };
+  const rotated = transformImage(density, n, pose);
+  const right = transformMask(upright.right, n, pose);
+  const left = transformMask(upright.left, n, pose);
+  const heart = transformMask(upright.heart, n, pose);
   const image = expose(rng, rotated, n);
 
   const rightBox = maskBounds(right, n)!;
@@ -84,7 +89,7 @@ export function generatePhantomStudy(rng: Rng, { size = 512, id = 'phantom', cre
   const findingMasks: PhantomFindingMask[] = [];
   const reportFindings: ReportFinding[] = [];
   for (const f of layers.findings) {
-    const mask = rotateMask(f.mask, n, angle);
+    const mask = transformMask(f.mask, n, pose);
     const zones = zonesOfMask(mask, n, zoneRects);
     if (zones.length === 0) continue;
     reportFindings.push({ index: findingMasks.length, kind: f.kind, side: f.side, zones, severity: f.severity, variant: f.variant });
