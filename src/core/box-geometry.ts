@@ -67,6 +67,7 @@ function hasArea(r: ImageRect): boolean {
  * rectangles. Rectangles with no positive area or with NaN contribute nothing; empty input gives 0.
  */
 export function unionArea(rects: readonly ImageRect[]): number {
+  if (rects.length === 1) return hasArea(rects[0]) ? rects[0].w * rects[0].h : 0;
   const rs = rects.filter(hasArea);
   if (rs.length === 0) return 0;
   if (rs.length === 1) return rs[0].w * rs[0].h;
@@ -106,11 +107,68 @@ export function areaInsideUnion(rect: ImageRect, boxes: readonly ImageRect[]): n
   return unionArea(parts);
 }
 
+/** Rectangles as edge arrays: x0 = x, y0 = y, x1 = x + w, y1 = y + h (the same sums as ImageRect users). */
+export interface RectEdges {
+  readonly x0: Float64Array;
+  readonly y0: Float64Array;
+  readonly x1: Float64Array;
+  readonly y1: Float64Array;
+}
+
+/** The edges of each rectangle, for loops over many rectangles (see RectEdges). */
+export function rectEdges(rects: readonly ImageRect[]): RectEdges {
+  const n = rects.length;
+  const x0 = new Float64Array(n);
+  const y0 = new Float64Array(n);
+  const x1 = new Float64Array(n);
+  const y1 = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const r = rects[i];
+    x0[i] = r.x;
+    y0[i] = r.y;
+    x1[i] = r.x + r.w;
+    y1[i] = r.y + r.h;
+  }
+  return { x0, y0, x1, y1 };
+}
+
 /** For each rectangle, the area of it covered by the union of the boxes (see areaInsideUnion). */
 export function coveredAreas(rects: readonly ImageRect[], boxes: readonly ImageRect[]): Float64Array {
   const out = new Float64Array(rects.length);
-  for (let i = 0; i < rects.length; i++) out[i] = areaInsideUnion(rects[i], boxes);
+  coveredAreasInto(rects, rectEdges(rects), boxes, out);
   return out;
+}
+
+/**
+ * As coveredAreas, written into `out` (one value per rectangle), with `edges` = rectEdges(rects)
+ * computed once for many calls. The same numbers as areaInsideUnion: a rectangle that meets one
+ * box gets the area of that intersection, one that meets several goes through unionArea.
+ */
+export function coveredAreasInto(
+  rects: readonly ImageRect[],
+  edges: RectEdges,
+  boxes: readonly ImageRect[],
+  out: Float64Array,
+): void {
+  const { x0, y0, x1, y1 } = edges;
+  const nb = boxes.length;
+  for (let i = 0; i < rects.length; i++) {
+    let area = 0;
+    let parts = 0;
+    for (let k = 0; k < nb; k++) {
+      const b = boxes[k];
+      // intersectRects' expressions, so a single part has exactly areaInsideUnion's area.
+      const ax = Math.max(x0[i], b.x);
+      const ay = Math.max(y0[i], b.y);
+      const bx = Math.min(x1[i], b.x + b.w);
+      const by = Math.min(y1[i], b.y + b.h);
+      if (bx > ax && by > ay) {
+        parts++;
+        area = (bx - ax) * (by - ay);
+      }
+    }
+    out[i] = parts > 1 || !Number.isFinite(area) ? areaInsideUnion(rects[i], boxes) : area;
+  }
 }
 
 /** Inclusive range of pixel indices [first, last] along both axes; empty when last < first. */
@@ -119,6 +177,37 @@ export interface PixelRange {
   readonly lastX: number;
   readonly firstY: number;
   readonly lastY: number;
+}
+
+// One rectangle: the general count below with its bands written out (at most three, only the
+// middle one covered), so the result is the same to the last pixel without its allocations.
+function countPixelCentresInRect(r: ImageRect, range: PixelRange, tolerancePx: number): number {
+  const x = r.x - tolerancePx;
+  const y = r.y - tolerancePx;
+  const w = r.w + 2 * tolerancePx;
+  const h = r.h + 2 * tolerancePx;
+  if (!(w >= 0 && h >= 0) || range.lastX < range.firstX) return 0;
+  const a = Math.max(range.firstX, Math.ceil(x - 0.5));
+  const b = Math.min(range.lastX, Math.floor(x + w - 0.5));
+  const inRow = b >= a ? b - a + 1 : 0;
+  if (inRow === 0) return 0;
+  const end = range.lastY + 1;
+  let lo = Math.ceil(y - 0.5);
+  let hi = Math.floor(y + h - 0.5) + 1;
+  if (!(lo > range.firstY && lo <= range.lastY)) lo = range.firstY;
+  if (!(hi > range.firstY && hi <= range.lastY)) hi = end;
+  const yEnd = y + h;
+  let count = 0;
+  // Bands [firstY, lo), [lo, hi), [hi, end) (or fewer when cuts coincide), each judged by its first row.
+  const cuts = lo <= hi ? [range.firstY, lo, hi, end] : [range.firstY, hi, lo, end];
+  for (let k = 0; k < 3; k++) {
+    const from = cuts[k];
+    const to = cuts[k + 1];
+    if (to <= from) continue;
+    const yc = from + 0.5;
+    if (yc >= y && yc <= yEnd) count += inRow * (to - from);
+  }
+  return count;
 }
 
 /**
@@ -132,6 +221,7 @@ export function countPixelCentresInUnion(
   tolerancePx = 0,
 ): number {
   checkTolerance(tolerancePx);
+  if (rects.length === 1) return countPixelCentresInRect(rects[0], range, tolerancePx);
   const rs = rects.map((r) => enlargeRect(r, tolerancePx)).filter((r) => r.w >= 0 && r.h >= 0);
   if (rs.length === 0 || range.lastX < range.firstX) return 0;
   // Rows between consecutive box edges are covered by the same boxes: count one row per band.
@@ -166,6 +256,15 @@ export function countPixelCentresInUnion(
     count += inRow * (bands[bi + 1] - bands[bi]);
   }
   return count;
+}
+
+/** Whether validateImageBox finds no problem with the box, without building any message. */
+export function isValidImageBox(box: ImageRect, imageSize: Size): boolean {
+  const { x, y, w, h } = box;
+  return (
+    Number.isFinite(x) && Number.isFinite(y) && Number.isFinite(w) && Number.isFinite(h) &&
+    w > 0 && h > 0 && x >= 0 && y >= 0 && x + w <= imageSize.width && y + h <= imageSize.height
+  );
 }
 
 /**

@@ -1,6 +1,6 @@
 import type { GridShape, HitRule, ImagePoint, ImageRect, ResizeTransform, Size } from './types';
 import { cellIndexToRowCol } from './grid-geometry';
-import { coveredAreas, pointInRect, unionArea } from './box-geometry';
+import { coveredAreasInto, unionArea } from './box-geometry';
 import {
   centreHit,
   chanceLevels,
@@ -89,18 +89,24 @@ export function groundSentence(args: GroundSentenceArgs): SentenceGrounding {
     overlap: overlapHit(geometry.cells[best], boxes),
     upsampled: up !== undefined && centreHit(up, boxes, tolerancePx),
   };
-  const covered = coveredAreas(geometry.cells, boxes);
-  const fraction = new Float64Array(n);
-  const inside = new Uint8Array(n);
+  const { covered, fraction, inside } = geometry.scratch;
+  coveredAreasInto(geometry.cells, geometry.cellEdges, boxes, covered);
+  const { centreX, centreY, cellAreas } = geometry;
   for (let i = 0; i < n; i++) {
-    const a = geometry.cellAreas[i];
+    const a = cellAreas[i];
     fraction[i] = a > 0 ? covered[i] / a : 0;
-    for (const b of boxes) {
-      if (pointInRect(geometry.centres[i], b)) {
-        inside[i] = 1;
+    const cx = centreX[i];
+    const cy = centreY[i];
+    let hit = 0;
+    for (let k = 0; k < boxes.length; k++) {
+      // pointInRect with no tolerance: the boxes as drawn.
+      const b = boxes[k];
+      if (cx >= b.x && cx <= b.x + b.w && cy >= b.y && cy <= b.y + b.h) {
+        hit = 1;
         break;
       }
     }
+    inside[i] = hit;
   }
   const topK = args.topK ?? Math.min(5, n);
   return {

@@ -1,6 +1,14 @@
 import type { GridShape, HitRule, ImagePoint, ImageRect, ResizeTransform, Size } from './types';
 import { cellCentre, gridCellRects, validateGrid } from './grid-geometry';
-import { countPixelCentresInUnion, pointInAnyRect, rectsOverlap, validateImageBox } from './box-geometry';
+import {
+  countPixelCentresInUnion,
+  isValidImageBox,
+  pointInAnyRect,
+  rectEdges,
+  rectsOverlap,
+  validateImageBox,
+  type RectEdges,
+} from './box-geometry';
 import { planUpsampledArgMax, upsampledArgMax, type UpsamplePlan } from './upsampled-arg-max';
 
 /** What the hit rules need about one sentence's map and the study geometry. */
@@ -25,10 +33,23 @@ export interface StudyGeometry {
   readonly imageSize: Size;
   readonly cells: readonly ImageRect[];
   readonly centres: readonly ImagePoint[];
+  /** The cells' edges (x, y, x + w, y + h) and centres as typed arrays, for the per-cell loops. */
+  readonly cellEdges: RectEdges;
+  readonly centreX: Float64Array;
+  readonly centreY: Float64Array;
   readonly cellAreas: Float64Array;
   readonly upsample: UpsamplePlan;
   /** Number of image pixels the encoder sees (the upsampled rule's population). */
   readonly visiblePixels: number;
+  /**
+   * Per-cell scratch space of groundSentence, overwritten by every call, so that scoring a
+   * study's sentences allocates no per-cell arrays: a geometry belongs to one caller at a time.
+   */
+  readonly scratch: {
+    readonly covered: Float64Array;
+    readonly fraction: Float64Array;
+    readonly inside: Uint8Array;
+  };
 }
 
 const RULES: readonly HitRule[] = ['centre', 'overlap', 'upsampled'];
@@ -48,15 +69,32 @@ export function prepareStudyGeometry(
   }
   const upsample = planUpsampledArgMax(transform, grid);
   const visible = (upsample.x.last - upsample.x.first + 1) * (upsample.y.last - upsample.y.first + 1);
+  const n = cells.length;
+  const centres: ImagePoint[] = new Array<ImagePoint>(n);
+  const centreX = new Float64Array(n);
+  const centreY = new Float64Array(n);
+  const cellAreas = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const c = cells[i];
+    const p = cellCentre(c);
+    centres[i] = p;
+    centreX[i] = p.x;
+    centreY[i] = p.y;
+    cellAreas[i] = c.w * c.h;
+  }
   return {
     transform,
     grid,
     imageSize: transform.source,
     cells,
-    centres: cells.map(cellCentre),
-    cellAreas: Float64Array.from(cells, (c) => c.w * c.h),
+    centres,
+    cellEdges: rectEdges(cells),
+    centreX,
+    centreY,
+    cellAreas,
     upsample,
     visiblePixels: Math.max(0, visible),
+    scratch: { covered: new Float64Array(n), fraction: new Float64Array(n), inside: new Uint8Array(n) },
   };
 }
 
@@ -99,9 +137,12 @@ export function validateHitArgs(args: HitArgs, geometry?: StudyGeometry): void {
   }
   const tol = args.tolerancePx ?? 0;
   if (!(Number.isFinite(tol) && tol >= 0)) problems.push(`'tolerancePx' must be a finite number >= 0; got ${tol}`);
-  args.boxes.forEach((b, i) => {
-    for (const p of validateImageBox(b, args.imageSize)) problems.push(`boxes[${i}]: ${p}`);
-  });
+  const boxes = args.boxes;
+  for (let i = 0; i < boxes.length; i++) {
+    // The quick test passes valid boxes; only a bad one pays for the messages.
+    if (isValidImageBox(boxes[i], args.imageSize)) continue;
+    for (const p of validateImageBox(boxes[i], args.imageSize)) problems.push(`boxes[${i}]: ${p}`);
+  }
   if (geometry !== undefined && (geometry.grid.h !== args.grid.h || geometry.grid.w !== args.grid.w)) {
     problems.push(`'geometry' was prepared for a ${geometry.grid.h} x ${geometry.grid.w} grid; got ${args.grid.h} x ${args.grid.w}`);
   }
@@ -139,11 +180,32 @@ export function chanceLevels(
   tolerancePx: number,
 ): Record<HitRule, number> {
   const n = geometry.cells.length;
+  const { centreX, centreY } = geometry;
+  const { x0, y0, x1, y1 } = geometry.cellEdges;
   let centre = 0;
   let overlap = 0;
-  for (let i = 0; i < n; i++) {
-    if (centreHit(geometry.centres[i], boxes, tolerancePx)) centre++;
-    if (overlapHit(geometry.cells[i], boxes)) overlap++;
+  if (boxes.length > 0) {
+    for (let i = 0; i < n; i++) {
+      const cx = centreX[i];
+      const cy = centreY[i];
+      let c = 0;
+      let o = 0;
+      for (let k = 0; k < boxes.length; k++) {
+        const b = boxes[k];
+        const bx1 = b.x + b.w;
+        const by1 = b.y + b.h;
+        // The expressions of pointInRect and intersectionArea, so the counts match them exactly.
+        if (c === 0 && cx >= b.x - tolerancePx && cx <= bx1 + tolerancePx && cy >= b.y - tolerancePx && cy <= by1 + tolerancePx) c = 1;
+        if (o === 0) {
+          const w = Math.min(x1[i], bx1) - Math.max(x0[i], b.x);
+          const h = Math.min(y1[i], by1) - Math.max(y0[i], b.y);
+          if (w > 0 && h > 0 && w * h > 0) o = 1;
+        }
+        if (c + o === 2) break;
+      }
+      centre += c;
+      overlap += o;
+    }
   }
   const { x, y } = geometry.upsample;
   const inside = countPixelCentresInUnion(

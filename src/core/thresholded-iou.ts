@@ -33,18 +33,23 @@ export function thresholdedIouFromAreas(
     if (v > hi) hi = v;
   }
   const range = hi - lo;
-  return thresholds.map((threshold) => {
-    if (!(range > 0)) return { threshold, iou: undefined };
-    let mapArea = 0;
-    let inter = 0;
-    for (let i = 0; i < values.length; i++) {
-      if ((values[i] - lo) / range >= threshold) {
-        mapArea += cellAreas[i];
-        inter += covered[i];
+  if (!(range > 0)) return thresholds.map((threshold) => ({ threshold, iou: undefined }));
+  // One pass over the cells for every threshold; each threshold still sums its cells in order.
+  const nt = thresholds.length;
+  const mapArea = new Float64Array(nt);
+  const inter = new Float64Array(nt);
+  for (let i = 0; i < values.length; i++) {
+    const z = (values[i] - lo) / range;
+    for (let t = 0; t < nt; t++) {
+      if (z >= thresholds[t]) {
+        mapArea[t] += cellAreas[i];
+        inter[t] += covered[i];
       }
     }
-    const union = mapArea + boxArea - inter;
-    return { threshold, iou: union > 0 ? inter / union : undefined };
+  }
+  return thresholds.map((threshold, t) => {
+    const union = mapArea[t] + boxArea - inter[t];
+    return { threshold, iou: union > 0 ? inter[t] / union : undefined };
   });
 }
 

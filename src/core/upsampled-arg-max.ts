@@ -39,6 +39,8 @@ export interface UpsampleAxis {
   /** Candidate pixel indices (ascending) with their node index and blend weight. */
   readonly pixels: Int32Array;
   readonly node: Int32Array;
+  /** The second node each candidate blends: node + 1, or node itself when its weight is 0. */
+  readonly nextNode: Int32Array;
   readonly weight: Float64Array;
 }
 
@@ -47,6 +49,11 @@ export interface UpsamplePlan {
   readonly grid: GridShape;
   readonly x: UpsampleAxis;
   readonly y: UpsampleAxis;
+  /**
+   * Scratch space of upsampledArgMax (grid.h x x-candidates), overwritten by every call: a plan
+   * belongs to one caller at a time.
+   */
+  readonly rowBlend: Float64Array;
 }
 
 function gridCoordinate(p: number, scale: number, offset: number, inputSize: number, n: number): number {
@@ -61,9 +68,13 @@ function nodeAndWeight(g: number, n: number): [number, number] {
 }
 
 function planAxis(size: number, scale: number, offset: number, inputSize: number, n: number): UpsampleAxis {
-  const pixels: number[] = [];
-  const nodes: number[] = [];
-  const weights: number[] = [];
+  // At most two candidates per group and at most max(n - 1, 1) groups.
+  const capacity = 2 * Math.max(n - 1, 1);
+  const pixels = new Int32Array(capacity);
+  const nodes = new Int32Array(capacity);
+  const nextNodes = new Int32Array(capacity);
+  const weights = new Float64Array(capacity);
+  let count = 0;
   let first = -1;
   let last = -2;
   let groupNode = -1;
@@ -71,54 +82,60 @@ function planAxis(size: number, scale: number, offset: number, inputSize: number
   let firstWeight = 0;
   let maxPixel = -1;
   let maxWeight = -Infinity;
-  const flush = (): void => {
-    if (groupNode < 0) return;
-    pixels.push(firstPixel);
-    nodes.push(groupNode);
-    weights.push(firstWeight);
-    if (maxPixel !== firstPixel) {
-      pixels.push(maxPixel);
-      nodes.push(groupNode);
-      weights.push(maxWeight);
+  for (let p = 0; p <= size; p++) {
+    let g = 0;
+    let i0 = -1;
+    let t = 0;
+    if (p < size) {
+      g = gridCoordinate(p, scale, offset, inputSize, n);
+      if (!(g >= -0.5 && g <= n - 0.5)) continue;
+      if (first < 0) first = p;
+      last = p;
+      const c = n === 1 ? 0 : g < 0 ? 0 : g > n - 1 ? n - 1 : g;
+      i0 = n === 1 ? 0 : Math.min(Math.floor(c), n - 2);
+      t = c - i0;
+      if (i0 === groupNode) {
+        if (t > maxWeight) {
+          maxPixel = p;
+          maxWeight = t;
+        }
+        continue;
+      }
     }
-  };
-  for (let p = 0; p < size; p++) {
-    const g = gridCoordinate(p, scale, offset, inputSize, n);
-    if (!(g >= -0.5 && g <= n - 0.5)) continue;
-    if (first < 0) first = p;
-    last = p;
-    const c = n === 1 ? 0 : g < 0 ? 0 : g > n - 1 ? n - 1 : g;
-    const i0 = n === 1 ? 0 : Math.min(Math.floor(c), n - 2);
-    const t = c - i0;
-    if (i0 !== groupNode) {
-      flush();
-      groupNode = i0;
-      firstPixel = p;
-      firstWeight = t;
-      maxPixel = p;
-      maxWeight = t;
-    } else if (t > maxWeight) {
-      maxPixel = p;
-      maxWeight = t;
+    // A new group starts (or the axis ends): the finished group gives its first and its largest-t pixel.
+    if (groupNode >= 0) {
+      pixels[count] = firstPixel;
+      nodes[count] = groupNode;
+      nextNodes[count] = firstWeight > 0 ? groupNode + 1 : groupNode;
+      weights[count++] = firstWeight;
+      if (maxPixel !== firstPixel) {
+        pixels[count] = maxPixel;
+        nodes[count] = groupNode;
+        nextNodes[count] = maxWeight > 0 ? groupNode + 1 : groupNode;
+        weights[count++] = maxWeight;
+      }
     }
+    groupNode = i0;
+    firstPixel = p;
+    firstWeight = t;
+    maxPixel = p;
+    maxWeight = t;
   }
-  flush();
   return {
     first: first < 0 ? 0 : first,
     last: first < 0 ? -1 : last,
-    pixels: Int32Array.from(pixels),
-    node: Int32Array.from(nodes),
-    weight: Float64Array.from(weights),
+    pixels: pixels.slice(0, count),
+    node: nodes.slice(0, count),
+    nextNode: nextNodes.slice(0, count),
+    weight: weights.slice(0, count),
   };
 }
 
 /** Builds the per-study plan for upsampledArgMax: O(image width + height). */
 export function planUpsampledArgMax(t: ResizeTransform, grid: GridShape): UpsamplePlan {
-  return {
-    grid,
-    x: planAxis(Math.round(t.source.width), t.scaleX, t.offsetX, t.input.width, grid.w),
-    y: planAxis(Math.round(t.source.height), t.scaleY, t.offsetY, t.input.height, grid.h),
-  };
+  const x = planAxis(Math.round(t.source.width), t.scaleX, t.offsetX, t.input.width, grid.w);
+  const y = planAxis(Math.round(t.source.height), t.scaleY, t.offsetY, t.input.height, grid.h);
+  return { grid, x, y, rowBlend: new Float64Array(grid.h * x.pixels.length) };
 }
 
 function blend(values: ArrayLike<number>, w: number, ix: number, tx: number, iy: number, ty: number): number {
@@ -159,21 +176,36 @@ export function upsampledValueAt(
  * a number.
  */
 export function upsampledArgMax(values: ArrayLike<number>, plan: UpsamplePlan): { px: number; py: number } | undefined {
-  const { x, y, grid } = plan;
+  const { x, y, grid, rowBlend } = plan;
+  const nx = x.pixels.length;
+  const w = grid.w;
+  // Each node row's horizontal blend at every candidate column, shared by the candidate rows that
+  // blend that node row: the same expression as blend(), so the values are bit-identical.
+  for (let r = 0; r < grid.h; r++) {
+    const ro = r * w;
+    const bo = r * nx;
+    for (let i = 0; i < nx; i++) {
+      const v0 = values[ro + x.node[i]];
+      const v1 = values[ro + x.nextNode[i]];
+      rowBlend[bo + i] = v0 + x.weight[i] * (v1 - v0);
+    }
+  }
   let best = -Infinity;
   let bx = -1;
   let by = -1;
   for (let j = 0; j < y.pixels.length; j++) {
-    const iy = y.node[j];
     const ty = y.weight[j];
-    for (let i = 0; i < x.pixels.length; i++) {
-      const v = blend(values, grid.w, x.node[i], x.weight[i], iy, ty);
+    const top = y.node[j] * nx;
+    const bottom = y.nextNode[j] * nx;
+    for (let i = 0; i < nx; i++) {
+      const t = rowBlend[top + i];
+      const v = t + ty * (rowBlend[bottom + i] - t);
       if (v > best || (bx < 0 && v === best)) {
         best = v;
-        bx = x.pixels[i];
-        by = y.pixels[j];
+        bx = i;
+        by = j;
       }
     }
   }
-  return bx < 0 ? undefined : { px: bx, py: by };
+  return bx < 0 ? undefined : { px: x.pixels[bx], py: y.pixels[by] };
 }
