@@ -1,7 +1,17 @@
 import type { Rng } from '../core/seeded-random';
 import type { LungZone, ZoneLabel } from '../core/types';
 import type { Side } from './chest-geometry';
-import type { FindingKind } from './draw-findings';
+import type { FindingKind } from './plan-findings';
+import {
+  atelectasisText,
+  consolidationText,
+  edemaText,
+  effusionText,
+  NEGATIONS,
+  noduleText,
+  pneumothoraxText,
+  type Built,
+} from './finding-phrases';
 
 /** One finding as the report sees it: kind, where its mask lies (zones by share of mask), severity. */
 export interface ReportFinding {
@@ -43,7 +53,6 @@ const cap = (s: string): string => s.charAt(0).toUpperCase() + s.slice(1);
 const sideOf = (z: LungZone): Side => (z.startsWith('right') ? 'right' : 'left');
 const rowOf = (z: LungZone): string => z.slice(z.indexOf('-') + 1);
 const ROW_ORDER = ['upper', 'middle', 'lower'];
-const SIZE_WORDS: readonly (readonly string[])[] = [[], ['small', 'minor'], ['moderate', 'moderate-sized'], ['large', 'sizeable']];
 
 /** A phrase naming one or two zones, e.g. "the right middle and lower zones". */
 function locate(rng: Rng, zones: readonly LungZone[], kind: FindingKind): Loc {
@@ -81,127 +90,6 @@ function namedZones(f: ReportFinding): LungZone[] {
   if (f.kind === 'pneumothorax' && f.variant === 'apical') return [`${f.side}-upper` as LungZone];
   return f.zones.slice(0, 2);
 }
-
-interface Built {
-  text: string;
-  uncertain: boolean;
-}
-
-function consolidationText(rng: Rng, loc: string, hedge: boolean, plural: boolean): Built {
-  if (hedge) {
-    return pick(rng, [
-      { text: `Possible early consolidation in ${loc}.`, uncertain: true },
-      { text: `Ill-defined opacity in ${loc}, possibly infective.`, uncertain: true },
-      { text: `Hazy shadowing in ${loc} may represent consolidation.`, uncertain: true },
-    ]);
-  }
-  if (plural) {
-    return pick(rng, [
-      { text: `There are patchy airspace opacities in ${loc}.`, uncertain: false },
-      { text: `Areas of consolidation are seen in ${loc}.`, uncertain: false },
-    ]);
-  }
-  return pick(rng, [
-    { text: `There is a focal opacity in ${loc}.`, uncertain: false },
-    { text: `Patchy consolidation is seen in ${loc}.`, uncertain: false },
-    { text: `Airspace opacity in ${loc}, in keeping with consolidation.`, uncertain: false },
-    { text: `An area of consolidation with air bronchograms occupies ${loc}.`, uncertain: false },
-    { text: `Focal airspace shadowing is present in ${loc}.`, uncertain: false },
-  ]);
-}
-
-function noduleText(rng: Rng, loc: string, hedge: boolean, plural: boolean, mm: number): Built {
-  if (hedge) {
-    return pick(rng, [
-      { text: `Possible small nodule in ${loc}.`, uncertain: true },
-      { text: `A faint rounded density in ${loc} may be a nodule.`, uncertain: true },
-    ]);
-  }
-  if (plural) return { text: `Rounded nodules are seen in ${loc}.`, uncertain: false };
-  return pick(rng, [
-    { text: `A ${mm} mm nodule is noted in ${loc}.`, uncertain: false },
-    { text: `There is a small rounded nodular opacity in ${loc}.`, uncertain: false },
-    { text: `A well-defined nodule projects over ${loc}.`, uncertain: false },
-    { text: `Solitary pulmonary nodule in ${loc}, measuring about ${mm} mm.`, uncertain: false },
-  ]);
-}
-
-function effusionText(rng: Rng, f: ReportFinding, loc: Loc, hedge: boolean): Built {
-  const size = pick(rng, SIZE_WORDS[Math.min(3, Math.max(1, f.severity))]);
-  const side = f.side as Side;
-  if (hedge) {
-    return pick(rng, [
-      { text: `Possible small effusion at the ${side} base.`, uncertain: true },
-      { text: `Slight blunting of the ${side} costophrenic angle, possibly a trace of fluid.`, uncertain: true },
-    ]);
-  }
-  if (loc.zones.length === 2) {
-    return pick(rng, [
-      { text: `A ${size} pleural effusion occupies ${loc.phrase}.`, uncertain: false },
-      { text: `There is a ${size} pleural effusion in ${loc.phrase}, with a meniscus laterally.`, uncertain: false },
-    ]);
-  }
-  return pick(rng, [
-    { text: `There is a ${size} pleural effusion at the ${side} base.`, uncertain: false },
-    { text: `The ${side} costophrenic angle is blunted by a ${size} effusion.`, uncertain: false },
-    { text: `A ${size} pleural effusion is seen in the ${side} lower zone, with a meniscus.`, uncertain: false },
-    { text: `Fluid fills the ${side} costophrenic angle, in keeping with a ${size} effusion.`, uncertain: false },
-  ]);
-}
-
-function pneumothoraxText(rng: Rng, f: ReportFinding, loc: Loc, hedge: boolean): Built {
-  const size = pick(rng, SIZE_WORDS[Math.min(3, Math.max(1, f.severity))]);
-  if (hedge) return { text: f.variant === 'apical' ? `Possible small ${f.side} apical pneumothorax.` : `Possible small pneumothorax in ${loc.phrase}.`, uncertain: true };
-  if (f.variant === 'apical') {
-    return pick(rng, [
-      { text: `There is a ${size} ${f.side} apical pneumothorax.`, uncertain: false },
-      { text: `A ${size} ${f.side} apical pneumothorax is present, with a visible pleural edge.`, uncertain: false },
-      { text: `A pleural line is seen at the ${f.side} apex with no lung markings above it, in keeping with pneumothorax.`, uncertain: false },
-    ]);
-  }
-  return pick(rng, [
-    { text: `There is a ${size} pneumothorax in ${loc.phrase}.`, uncertain: false },
-    { text: `A pleural line with absent lung markings beyond it is seen laterally in ${loc.phrase}, in keeping with pneumothorax.`, uncertain: false },
-    { text: `A ${size} pneumothorax is present along the lateral chest wall in ${loc.phrase}.`, uncertain: false },
-  ]);
-}
-
-function atelectasisText(rng: Rng, loc: string, hedge: boolean): Built {
-  if (hedge) return { text: `A linear opacity in ${loc} probably represents atelectasis.`, uncertain: true };
-  return pick(rng, [
-    { text: `Linear band of atelectasis in ${loc}.`, uncertain: false },
-    { text: `Plate-like atelectasis is seen in ${loc}.`, uncertain: false },
-    { text: `There is subsegmental atelectasis in ${loc}.`, uncertain: false },
-    { text: `A horizontal band of discoid atelectasis crosses ${loc}.`, uncertain: false },
-  ]);
-}
-
-function edemaText(rng: Rng, grade: number, oedema: string): Built {
-  if (grade === 1) {
-    return pick(rng, [
-      { text: `Mild vascular congestion in both perihilar regions.`, uncertain: false },
-      { text: `Prominent vessels in both perihilar regions, in keeping with mild vascular congestion.`, uncertain: false },
-    ]);
-  }
-  if (grade === 2) {
-    return pick(rng, [
-      { text: `Bilateral perihilar interstitial markings, consistent with interstitial ${oedema}.`, uncertain: false },
-      { text: `Interstitial ${oedema} with reticular shadowing in both perihilar regions.`, uncertain: false },
-    ]);
-  }
-  return pick(rng, [
-    { text: `Bilateral perihilar airspace opacities in a bat-wing distribution, in keeping with alveolar ${oedema}.`, uncertain: false },
-    { text: `Confluent shadowing in both perihilar regions, consistent with alveolar pulmonary ${oedema}.`, uncertain: false },
-  ]);
-}
-
-const NEGATIONS: Readonly<Record<string, readonly string[]>> = {
-  pneumothorax: ['No pneumothorax.', 'There is no pneumothorax.', 'No evidence of pneumothorax.', 'A pneumothorax is not seen.'],
-  effusion: ['No pleural effusion.', 'There is no pleural effusion.', 'No effusion is seen.', 'No pleural fluid.'],
-  consolidation: ['No focal consolidation.', 'There is no consolidation.', 'No airspace opacity is seen.'],
-  nodule: ['No pulmonary nodule is identified.', 'No nodules or masses.'],
-  edema: ['No pulmonary OEDEMA.', 'There is no OEDEMA.', 'No features of pulmonary OEDEMA.'],
-};
 
 /**
  * Writes a plain-prose report (FINDINGS and IMPRESSION sections) for a study's ground truth:

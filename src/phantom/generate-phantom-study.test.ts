@@ -46,7 +46,7 @@ describe('generatePhantomStudy', () => {
     expect(a.boxes).toEqual(b.boxes);
     expect(a.labels).toEqual(b.labels);
     expect(Buffer.from(a.image.buffer).equals(Buffer.from(c.image.buffer))).toBe(false);
-  });
+  }, 30_000);
 
   it('generatePhantomStudy(rng, { size }) rejects sizes below 128 or not integers', () => {
     for (const size of [127, 0, -5, 128.5, Number.NaN, Infinity]) {
@@ -54,7 +54,7 @@ describe('generatePhantomStudy', () => {
     }
     expect(() => generatePhantomStudy(createRng(1), { size: 127 })).toThrow(/'size' must be an integer >= 128; got 127/);
     expect(generatePhantomStudy(createRng(1), { size: 128 }).image.length).toBe(128 * 128);
-  });
+  }, 30_000);
 
   it('generatePhantomStudy(rng) writes finite intensities in [0, 1] with dark lungs and a bright mediastinum', () => {
     for (const s of studies.slice(0, 20)) {
@@ -70,7 +70,7 @@ describe('generatePhantomStudy', () => {
       expect(bad).toBe(0);
       expect(heart / nh - lung / nl).toBeGreaterThan(0.2);
     }
-  });
+  }, 30_000);
 
   it('generatePhantomStudy(rng).lungs are the bounding boxes of the lung masks, right lung on the image left', () => {
     for (const s of studies) {
@@ -80,7 +80,7 @@ describe('generatePhantomStudy', () => {
       expect(s.lungs.left.x + s.lungs.left.w / 2).toBeGreaterThan(SIZE / 2);
       expect(s.lungs.annotator).toBe('phantom-generator');
     }
-  });
+  }, 30_000);
 
   it('finding zones agree with the ILO thirds split measured from the masks and lung templates', () => {
     expect(allFindings.length).toBeGreaterThan(60);
@@ -91,7 +91,7 @@ describe('generatePhantomStudy', () => {
       expect([...f.zones].sort()).toEqual(measured.length > 0 ? measured.sort() : [largest]);
       expect(f.zones[0]).toBe(largest);
     }
-  });
+  }, 30_000);
 
   it('findings land in the zones they are planned for: effusions basal, apical pneumothoraces upper', () => {
     for (const f of allFindings) {
@@ -99,7 +99,7 @@ describe('generatePhantomStudy', () => {
       if (f.finding === 'pneumothorax') expect(f.zones).toContain(f.zones.find((z) => z.endsWith('upper')));
       if (f.finding === 'edema') expect(f.zones.filter((z) => z.endsWith('middle')).length).toBe(2);
     }
-  });
+  }, 30_000);
 
   it("a 'left' finding's mask centroid lies right of the image midline, a 'right' one's left of it", () => {
     let checked = 0;
@@ -114,7 +114,7 @@ describe('generatePhantomStudy', () => {
       checked++;
     }
     expect(checked).toBeGreaterThan(50);
-  });
+  }, 30_000);
 
   it('generatePhantomStudy(rng).boxes lie inside the image, overlap their masks and sit in their zone', () => {
     let n = 0;
@@ -142,7 +142,7 @@ describe('generatePhantomStudy', () => {
       }
     }
     expect(n).toBeGreaterThan(100);
-  });
+  }, 30_000);
 
   it('every positive sentence that names a finding and a place has a box per named zone; negated ones have none', () => {
     for (const s of studies) {
@@ -153,7 +153,7 @@ describe('generatePhantomStudy', () => {
         else expect(new Set(boxes.map((b) => b.zone))).toEqual(new Set(sentence.zones));
       });
     }
-  });
+  }, 30_000);
 
   it('parseReport agrees with the generated ground truth on negation, uncertainty and zones in over 95% of sentences', () => {
     let n = 0, neg = 0, unc = 0, zones = 0, index = 0;
@@ -173,7 +173,7 @@ describe('generatePhantomStudy', () => {
     expect(neg / n).toBeGreaterThan(0.95);
     expect(unc / n).toBeGreaterThan(0.95);
     expect(zones / n).toBeGreaterThan(0.95);
-  });
+  }, 30_000);
 
   it('reports vary: several phrasings per finding, FINDINGS and IMPRESSION sections, negated and uncertain sentences', () => {
     const texts = new Map<string, Set<string>>();
@@ -194,7 +194,7 @@ describe('generatePhantomStudy', () => {
     expect(negated).toBeGreaterThan(50);
     expect(uncertain).toBeGreaterThan(3);
     expect(twoPlaces).toBeGreaterThan(0);
-  });
+  }, 30_000);
 
   it('cardiomegaly is labelled exactly when the measured cardiothoracic ratio exceeds 0.5', () => {
     let enlarged = 0;
@@ -207,7 +207,7 @@ describe('generatePhantomStudy', () => {
     }
     expect(enlarged).toBeGreaterThan(5);
     expect(enlarged).toBeLessThan(60);
-  });
+  }, 30_000);
 
   it('findings are visible: opacities are brighter than the rest of their lung, pneumothoraces darker than the mirror region', () => {
     for (const f of allFindings) {
@@ -237,7 +237,7 @@ describe('generatePhantomStudy', () => {
       if (f.finding === 'nodule' || f.finding === 'atelectasis') expect(diff).toBeGreaterThan(0.04);
       else expect(diff).toBeGreaterThan(0.08);
     }
-  });
+  }, 30_000);
 
   it('labels list each finding with zones and severity, and the edema grade', () => {
     for (const s of studies) {
@@ -251,5 +251,5 @@ describe('generatePhantomStudy', () => {
     }
     const kinds = new Set(studies.flatMap((s) => s.labels.findings.map((f) => f.finding)));
     expect([...kinds].sort()).toEqual(['atelectasis', 'cardiomegaly', 'consolidation', 'edema', 'effusion', 'nodule', 'pneumothorax']);
-  });
+  }, 30_000);
 });

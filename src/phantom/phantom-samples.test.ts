@@ -24,5 +24,5 @@ describe('samples/phantom', () => {
     }
     const fresh = JSON.parse(files.get('set.json') as string) as SampleSetManifest;
     expect(fresh.studies).toEqual(manifest.studies.slice(0, 5));
-  });
+  }, 60_000);
 });

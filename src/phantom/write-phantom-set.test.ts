@@ -30,7 +30,7 @@ describe('writePhantomSet', () => {
     expect(manifest.synthetic).toBe(true);
     expect(manifest.studies.map((s) => s.image)).toEqual([1, 2, 3, 4, 5].map((i) => `images/phantom-000${i}.png`));
     for (const s of manifest.studies) expect(typeof s.labels?.edema_grade).toBe('number');
-  });
+  }, 60_000);
 
   it('writePhantomSet gives byte-identical files for the same options and different ones for another seed', async () => {
     const a = memorySink(), b = memorySink(), c = memorySink();
@@ -39,14 +39,14 @@ describe('writePhantomSet', () => {
     await writePhantomSet({ n: 3, seed: 10, size: 128, format: 'mixed' }, c);
     for (const [path, data] of a.files) expect(Buffer.from(b.files.get(path) as Uint8Array).equals(Buffer.from(data as Uint8Array)), path).toBe(true);
     expect(asText(c.files.get('set.json'))).not.toBe(asText(a.files.get('set.json')));
-  });
+  }, 60_000);
 
   it('study i of a set does not depend on n', async () => {
     const small = memorySink(), large = memorySink();
     await writePhantomSet({ n: 2, seed: 4, size: 128 }, small);
     await writePhantomSet({ n: 4, seed: 4, size: 128 }, large);
     expect(Buffer.from(small.files.get('images/phantom-0002.png') as Uint8Array).equals(Buffer.from(large.files.get('images/phantom-0002.png') as Uint8Array))).toBe(true);
-  });
+  }, 60_000);
 
   it('annotations.json loads with every box matching its sentence, inside its image, with fixed time stamps', async () => {
     const sink = memorySink();
@@ -64,7 +64,7 @@ describe('writePhantomSet', () => {
       expect(box.annotator).toBe('phantom-generator');
       expect(box.created).toBe(createdFromSeed(21));
     }
-  });
+  }, 60_000);
 
   it("writePhantomSet({ format: 'dcm' }) alternates MONOCHROME2 and MONOCHROME1 with the same displayed image", async () => {
     const sink = memorySink();
@@ -86,7 +86,7 @@ describe('writePhantomSet', () => {
       for (let i = 0; i < study.image.length; i++) maxErr = Math.max(maxErr, Math.abs((decoded.data[i] - min) / (max - min) - study.image[i]));
       expect(maxErr).toBeLessThan(1 / 4095 + 1e-6);
     }
-  });
+  }, 60_000);
 
   it("writePhantomSet PNGs carry the synthetic marker; bitDepth 16 writes 16-bit files; 'mixed' uses all three kinds", async () => {
     const sink = memorySink();
@@ -102,12 +102,12 @@ describe('writePhantomSet', () => {
     const sixteen = memorySink();
     await writePhantomSet({ n: 1, seed: 6, size: 128, bitDepth: 16 }, sixteen);
     expect(decodeImage(sixteen.files.get('images/phantom-0001.png') as Uint8Array, 'x.png').bitDepth).toBe(16);
-  });
+  }, 60_000);
 
   it('writePhantomSet rejects bad options, naming every problem at once', async () => {
     await expect(writePhantomSet({ n: 0, seed: 1, size: 100 }, memorySink())).rejects.toThrow(/'n' must be an integer >= 1; got 0; 'size' must be an integer in \[128, 4096\]; got 100/);
     expect(phantomSetProblems({ n: 1.5, seed: -1, size: 128, format: 'jpg' as 'png', bitDepth: 12 as 8 })).toHaveLength(4);
     expect(phantomSetProblems({ n: 1, seed: 0 })).toEqual([]);
     expect(phantomSetProblems({ n: Number.NaN, seed: Number.NaN })).toHaveLength(2);
-  });
+  }, 60_000);
 });
