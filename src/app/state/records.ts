@@ -100,8 +100,11 @@ export const DEFAULT_VIEW: ViewSettings = {
   annotator: '',
 };
 
+/** Fields to start a store with; view settings may be given in part. */
+export type InitialState = Partial<Omit<AppState, 'view'>> & { readonly view?: Partial<ViewSettings> };
+
 /** An empty state with every field present; `initial` overrides fields. */
-export function createInitialState(initial: Partial<AppState> = {}): AppState {
+export function createInitialState(initial: InitialState = {}): AppState {
   return {
     setName: '',
     studies: [],

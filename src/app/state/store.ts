@@ -1,4 +1,4 @@
-import { createInitialState, type AppState } from './records';
+import { createInitialState, type AppState, type InitialState } from './records';
 
 export type StoreListener = (state: AppState, previous: AppState) => void;
 
@@ -21,7 +21,7 @@ export interface AppStoreOptions {
  * Creates a store of plain immutable records outside React (use with useSyncExternalStore).
  * Each store owns its state and listeners; nothing is shared between stores.
  */
-export function createAppStore(initial: Partial<AppState> = {}, { now = () => new Date() }: AppStoreOptions = {}): AppStore {
+export function createAppStore(initial: InitialState = {}, { now = () => new Date() }: AppStoreOptions = {}): AppStore {
   let state = createInitialState(initial);
   const listeners = new Set<StoreListener>();
   return {
