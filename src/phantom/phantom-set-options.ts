@@ -13,6 +13,8 @@ export interface PhantomSetOptions {
   readonly format?: PhantomFormat;
   readonly bitDepth?: 8 | 16;
   readonly name?: string;
+  /** Also write masks/<id>.png: 8-bit ground-truth masks, one bit per finding kind (MASK_BITS). */
+  readonly masks?: boolean;
   readonly onProgress?: (done: number, total: number) => void;
 }
 
@@ -27,3 +29,14 @@ export function phantomSetProblems(options: PhantomSetOptions): string[] {
   if (bitDepth !== 8 && bitDepth !== 16) problems.push(`'bitDepth' must be 8 or 16; got ${String(bitDepth)}`);
   return problems;
 }
+
+/** Bit of each finding kind in a written mask image; the heart (cardiac silhouette) has its own bit. */
+export const MASK_BITS: Readonly<Record<string, number>> = {
+  consolidation: 1,
+  nodule: 2,
+  effusion: 4,
+  pneumothorax: 8,
+  atelectasis: 16,
+  edema: 32,
+  heart: 64,
+};

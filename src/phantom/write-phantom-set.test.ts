@@ -6,7 +6,7 @@ import { validateSampleSetManifest } from '../dataset/sample-set';
 import type { AnnotationFile, FileSink, SampleSetManifest } from '../dataset/types';
 import { parseReport } from '../report/parse-report';
 import { generatePhantomStudy } from './generate-phantom-study';
-import { phantomSetProblems } from './phantom-set-options';
+import { MASK_BITS, phantomSetProblems } from './phantom-set-options';
 import { createdFromSeed, studySeed, writePhantomSet } from './write-phantom-set';
 
 function memorySink(): FileSink & { files: Map<string, Uint8Array | string> } {
@@ -102,6 +102,21 @@ describe('writePhantomSet', () => {
     const sixteen = memorySink();
     await writePhantomSet({ n: 1, seed: 6, size: 128, bitDepth: 16 }, sixteen);
     expect(decodeImage(sixteen.files.get('images/phantom-0001.png') as Uint8Array, 'x.png').bitDepth).toBe(16);
+  }, 60_000);
+
+  it('writePhantomSet({ masks: true }) writes bit masks that match the labels and the heart', async () => {
+    const sink = memorySink();
+    await writePhantomSet({ n: 6, seed: 8, size: 128, masks: true }, sink);
+    const manifest = JSON.parse(asText(sink.files.get('set.json'))) as SampleSetManifest;
+    manifest.studies.forEach((s, index) => {
+      expect(s.labels?.mask).toBe(`masks/${s.id}.png`);
+      const decoded = decodeImage(sink.files.get(`masks/${s.id}.png`) as Uint8Array, 'm.png');
+      const study = generatePhantomStudy(createRng(studySeed(8, index)), { size: 128, id: s.id });
+      const bits = new Set<number>();
+      for (const v of decoded.data) for (let b = 1; b <= 64; b <<= 1) if (v & b) bits.add(b);
+      const expected = new Set([MASK_BITS.heart, ...study.masks.findings.map((f) => MASK_BITS[f.finding])]);
+      expect(bits).toEqual(expected);
+    });
   }, 60_000);
 
   it('writePhantomSet rejects bad options, naming every problem at once', async () => {

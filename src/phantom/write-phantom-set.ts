@@ -13,7 +13,7 @@ import {
   type StudyRecord,
 } from '../dataset/types';
 import { generatePhantomStudy, type PhantomStudy } from './generate-phantom-study';
-import { phantomSetProblems, type PhantomSetOptions } from './phantom-set-options';
+import { MASK_BITS, phantomSetProblems, type PhantomSetOptions } from './phantom-set-options';
 
 export interface PhantomSetResult {
   readonly name: string;
@@ -85,16 +85,28 @@ function encodeStudyImage(study: PhantomStudy, kind: ImageKind, seed: number): {
   return { ext: 'dcm', bytes };
 }
 
+/** An 8-bit PNG whose pixels OR together the MASK_BITS of the findings covering them. */
+function encodeMask(study: PhantomStudy): Uint8Array {
+  const data = new Uint8Array(study.size * study.size);
+  for (let i = 0; i < data.length; i++) if (study.masks.heart[i]) data[i] = MASK_BITS.heart;
+  for (const f of study.masks.findings) {
+    const bit = MASK_BITS[f.finding];
+    for (let i = 0; i < data.length; i++) if (f.mask[i]) data[i] |= bit;
+  }
+  const text = { Title: `${study.id} masks`, Comment: `Synthetic ground-truth masks; bits ${Object.entries(MASK_BITS).map(([k, v]) => `${k}=${v}`).join(' ')}`, Synthetic: 'true' };
+  return encodePng({ width: study.size, height: study.size, bitDepth: 8, data, text });
+}
+
 /**
  * Generates n synthetic studies and writes a sample set through `sink`: set.json (manifest,
  * synthetic: true, labels per study), annotations.json (reference boxes and lung templates) and
- * images/<id>.png or .dcm. Same options give byte-identical files. Throws RangeError listing
+ * images/<id>.png or .dcm (and masks/<id>.png with `masks`). Same options give byte-identical files. Throws RangeError listing
  * every invalid option.
  */
 export async function writePhantomSet(options: PhantomSetOptions, sink: FileSink): Promise<PhantomSetResult> {
   const problems = phantomSetProblems(options);
   if (problems.length > 0) throw new RangeError(problems.join('; '));
-  const { n, seed, size = 512, format = 'png', bitDepth = 8, onProgress } = options;
+  const { n, seed, size = 512, format = 'png', bitDepth = 8, masks = false, onProgress } = options;
   const name = options.name ?? `phantom-${seed}`;
   const created = createdFromSeed(seed);
   const studies: StudyRecord[] = [];
@@ -108,8 +120,15 @@ export async function writePhantomSet(options: PhantomSetOptions, sink: FileSink
     const image = `images/${id}.${ext}`;
     await sink.writeFile(image, bytes);
     files.push(image);
+    let mask: string | undefined;
+    if (masks) {
+      mask = `masks/${id}.png`;
+      await sink.writeFile(mask, encodeMask(study));
+      files.push(mask);
+    }
     // Only sentences that speak of a finding go into the manifest; the rest add nothing.
-    studies.push({ id, image, report: study.report, labels: { ...study.labels, sentences: study.labels.sentences.filter((s) => s.finding !== '') } });
+    const labels = { ...study.labels, sentences: study.labels.sentences.filter((s) => s.finding !== ''), ...(mask ? { mask } : {}) };
+    studies.push({ id, image, report: study.report, labels });
     boxes.push(...study.boxes);
     lungs.push(study.lungs);
     onProgress?.(i + 1, n);

@@ -35,11 +35,12 @@ describe('tessera phantom', () => {
     expect(set.synthetic).toBe(true);
   });
 
-  it('runPhantom with --format dcm writes DICOM files', async () => {
+  it('runPhantom with --format dcm --masks writes DICOM files and mask images', async () => {
     const out = join(root, 'set-dcm');
-    const code = await runPhantom(['--n', '2', '--seed', '1', '--out', out, '--size', '128', '--format', 'dcm'], capture().io);
+    const code = await runPhantom(['--n', '2', '--seed', '1', '--out', out, '--size', '128', '--format', 'dcm', '--masks'], capture().io);
     expect(code).toBe(0);
     expect((await readdir(join(out, 'images'))).sort()).toEqual(['phantom-0001.dcm', 'phantom-0002.dcm']);
+    expect((await readdir(join(out, 'masks'))).sort()).toEqual(['phantom-0001.png', 'phantom-0002.png']);
   });
 
   it('runPhantom rejects n < 1, size < 128, an unknown format and a missing --out with one line and exit code 2', async () => {

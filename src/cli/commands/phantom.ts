@@ -6,13 +6,13 @@ import { progressPrinter, type CommandIo } from '../io';
 import { integerOption, parseArgs, required, single, UsageError } from '../parse-args';
 
 /**
- * `phantom --n N --seed S --out DIR [--size PX] [--format png|dcm|mixed] [--bit-depth 8|16]`:
+ * `phantom --n N --seed S --out DIR [--size PX] [--format png|dcm|mixed] [--bit-depth 8|16] [--masks]`:
  * writes a synthetic sample set with reports, labels, reference boxes and lung templates.
  */
 export async function runPhantom(argv: string[], io: CommandIo): Promise<number> {
   let options;
   try {
-    const args = parseArgs(argv, { valued: ['n', 'seed', 'out', 'size', 'format', 'bit-depth'] });
+    const args = parseArgs(argv, { valued: ['n', 'seed', 'out', 'size', 'format', 'bit-depth'], flags: ['masks'] });
     if (args.positional.length > 0) throw new UsageError(`unexpected argument '${args.positional[0]}'; phantom takes only --options`);
     const out = required(args, 'out');
     const n = integerOption(args, 'n', Number.NaN, 1);
@@ -23,7 +23,7 @@ export async function runPhantom(argv: string[], io: CommandIo): Promise<number>
     if (!PHANTOM_FORMATS.includes(format as PhantomFormat)) throw new UsageError(`--format must be one of ${PHANTOM_FORMATS.join(', ')}; got '${format}'`);
     const bitDepth = integerOption(args, 'bit-depth', 8, 8, 16);
     if (bitDepth !== 8 && bitDepth !== 16) throw new UsageError(`--bit-depth must be 8 or 16; got '${bitDepth}'`);
-    options = { out, n, seed, size, format: format as PhantomFormat, bitDepth: bitDepth as 8 | 16 };
+    options = { out, n, seed, size, format: format as PhantomFormat, bitDepth: bitDepth as 8 | 16, masks: single(args, 'masks') === 'true' };
   } catch (err) {
     if (err instanceof UsageError) {
       io.stderr(`tessera phantom: ${err.message}`);
