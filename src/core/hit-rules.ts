@@ -4,7 +4,6 @@ import {
   countPixelCentresInUnion,
   isValidImageBox,
   pointInAnyRect,
-  rectEdges,
   rectsOverlap,
   validateImageBox,
   type RectEdges,
@@ -70,10 +69,11 @@ export function prepareStudyGeometry(
   const upsample = planUpsampledArgMax(transform, grid);
   const visible = (upsample.x.last - upsample.x.first + 1) * (upsample.y.last - upsample.y.first + 1);
   const n = cells.length;
+  // One backing store for every per-cell array: a typed-array allocation costs more than filling it.
+  const store = new ArrayBuffer(n * 9 * 8 + n);
+  const column = (k: number): Float64Array => new Float64Array(store, k * n * 8, n);
+  const [x0, y0, x1, y1, centreX, centreY, cellAreas, covered, fraction] = [0, 1, 2, 3, 4, 5, 6, 7, 8].map(column);
   const centres: ImagePoint[] = new Array<ImagePoint>(n);
-  const centreX = new Float64Array(n);
-  const centreY = new Float64Array(n);
-  const cellAreas = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const c = cells[i];
     const p = cellCentre(c);
@@ -81,6 +81,11 @@ export function prepareStudyGeometry(
     centreX[i] = p.x;
     centreY[i] = p.y;
     cellAreas[i] = c.w * c.h;
+    // rectEdges' sums.
+    x0[i] = c.x;
+    y0[i] = c.y;
+    x1[i] = c.x + c.w;
+    y1[i] = c.y + c.h;
   }
   return {
     transform,
@@ -88,13 +93,13 @@ export function prepareStudyGeometry(
     imageSize: transform.source,
     cells,
     centres,
-    cellEdges: rectEdges(cells),
+    cellEdges: { x0, y0, x1, y1 },
     centreX,
     centreY,
     cellAreas,
     upsample,
     visiblePixels: Math.max(0, visible),
-    scratch: { covered: new Float64Array(n), fraction: new Float64Array(n), inside: new Uint8Array(n) },
+    scratch: { covered, fraction, inside: new Uint8Array(store, n * 9 * 8, n) },
   };
 }
 

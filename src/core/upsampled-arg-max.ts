@@ -36,12 +36,15 @@ export interface UpsampleAxis {
   /** First and last visible pixel index (last < first when none is visible). */
   readonly first: number;
   readonly last: number;
-  /** Candidate pixel indices (ascending) with their node index and blend weight. */
-  readonly pixels: Int32Array;
-  readonly node: Int32Array;
+  /**
+   * Candidate pixel indices (ascending) with their node index and blend weight. Plain arrays:
+   * a few dozen entries per study, cheaper to build than typed arrays.
+   */
+  readonly pixels: readonly number[];
+  readonly node: readonly number[];
   /** The second node each candidate blends: node + 1, or node itself when its weight is 0. */
-  readonly nextNode: Int32Array;
-  readonly weight: Float64Array;
+  readonly nextNode: readonly number[];
+  readonly weight: readonly number[];
 }
 
 /** Everything the upsampled arg-max needs about one study's geometry; build once per study. */
@@ -68,13 +71,10 @@ function nodeAndWeight(g: number, n: number): [number, number] {
 }
 
 function planAxis(size: number, scale: number, offset: number, inputSize: number, n: number): UpsampleAxis {
-  // At most two candidates per group and at most max(n - 1, 1) groups.
-  const capacity = 2 * Math.max(n - 1, 1);
-  const pixels = new Int32Array(capacity);
-  const nodes = new Int32Array(capacity);
-  const nextNodes = new Int32Array(capacity);
-  const weights = new Float64Array(capacity);
-  let count = 0;
+  const pixels: number[] = [];
+  const nodes: number[] = [];
+  const nextNodes: number[] = [];
+  const weights: number[] = [];
   let first = -1;
   let last = -2;
   let groupNode = -1;
@@ -104,15 +104,15 @@ function planAxis(size: number, scale: number, offset: number, inputSize: number
     }
     // A new group starts (or the axis ends): the finished group gives its first and its largest-t pixel.
     if (groupNode >= 0) {
-      pixels[count] = firstPixel;
-      nodes[count] = groupNode;
-      nextNodes[count] = firstWeight > 0 ? groupNode + 1 : groupNode;
-      weights[count++] = firstWeight;
+      pixels.push(firstPixel);
+      nodes.push(groupNode);
+      nextNodes.push(firstWeight > 0 ? groupNode + 1 : groupNode);
+      weights.push(firstWeight);
       if (maxPixel !== firstPixel) {
-        pixels[count] = maxPixel;
-        nodes[count] = groupNode;
-        nextNodes[count] = maxWeight > 0 ? groupNode + 1 : groupNode;
-        weights[count++] = maxWeight;
+        pixels.push(maxPixel);
+        nodes.push(groupNode);
+        nextNodes.push(maxWeight > 0 ? groupNode + 1 : groupNode);
+        weights.push(maxWeight);
       }
     }
     groupNode = i0;
@@ -124,10 +124,10 @@ function planAxis(size: number, scale: number, offset: number, inputSize: number
   return {
     first: first < 0 ? 0 : first,
     last: first < 0 ? -1 : last,
-    pixels: pixels.slice(0, count),
-    node: nodes.slice(0, count),
-    nextNode: nextNodes.slice(0, count),
-    weight: weights.slice(0, count),
+    pixels,
+    node: nodes,
+    nextNode: nextNodes,
+    weight: weights,
   };
 }
 
