@@ -14,3 +14,14 @@ export {
   selectedStudy,
   sentenceKeyOf,
 } from './queries';
+export {
+  annotationContextOf,
+  annotationFileOf,
+  exportAnnotations,
+  exportCocoJson,
+  importAnnotations,
+  restoreAnnotations,
+  type ImportReport,
+} from './annotation-io';
+export { createAutosave, type Autosave, type AutosaveOptions } from './autosave';
+export { scoredSentences, summariseStudy, type SentenceResult, type StudySummary } from './study-summary';

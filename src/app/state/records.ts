@@ -85,6 +85,8 @@ export interface AppState {
   readonly stale: readonly StaleBox[];
   /** Boxes kept only so that saving loses nothing (study not loaded, box outside its image). */
   readonly held: readonly ReferenceBox[];
+  /** Lung templates kept for the same reason (study not loaded, outside its image). */
+  readonly heldLungs: readonly LungTemplate[];
   readonly selection: Selection;
   readonly view: ViewSettings;
   readonly notices: readonly Notice[];
@@ -112,6 +114,7 @@ export function createInitialState(initial: InitialState = {}): AppState {
     lungs: {},
     stale: [],
     held: [],
+    heldLungs: [],
     selection: {},
     notices: [],
     history: { past: [], future: [] },

@@ -35,6 +35,7 @@ export function loadSet(store: AppStore, { name, studies }: { readonly name: str
     lungs: {},
     stale: [],
     held: [],
+    heldLungs: [],
     notices: [],
     history: { past: [], future: [] },
     selection: entries.length ? { studyId: entries[0].id, sentenceIndex: entries[0].parsed.sentences[0]?.index } : {},
