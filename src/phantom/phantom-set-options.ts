@@ -1,6 +1,9 @@
 import { MIN_PHANTOM_SIZE } from './generate-phantom-study';
 
 export type PhantomFormat = 'png' | 'dcm' | 'mixed';
+// Each study holds a few dozen size x size float layers; 2048 px keeps a study under about 1 GB.
+export const MAX_PHANTOM_SIZE = 2048;
+
 export const PHANTOM_FORMATS: readonly PhantomFormat[] = ['png', 'dcm', 'mixed'];
 
 /**
@@ -24,7 +27,7 @@ export function phantomSetProblems(options: PhantomSetOptions): string[] {
   const problems: string[] = [];
   if (!Number.isInteger(n) || n < 1) problems.push(`'n' must be an integer >= 1; got ${n}`);
   if (!Number.isSafeInteger(seed) || seed < 0) problems.push(`'seed' must be a non-negative integer; got ${seed}`);
-  if (!Number.isInteger(size) || size < MIN_PHANTOM_SIZE || size > 4096) problems.push(`'size' must be an integer in [${MIN_PHANTOM_SIZE}, 4096]; got ${size}`);
+  if (!Number.isInteger(size) || size < MIN_PHANTOM_SIZE || size > MAX_PHANTOM_SIZE) problems.push(`'size' must be an integer in [${MIN_PHANTOM_SIZE}, ${MAX_PHANTOM_SIZE}]; got ${size}`);
   if (!PHANTOM_FORMATS.includes(format)) problems.push(`'format' must be one of ${PHANTOM_FORMATS.join(', ')}; got '${String(format)}'`);
   if (bitDepth !== 8 && bitDepth !== 16) problems.push(`'bitDepth' must be 8 or 16; got ${String(bitDepth)}`);
   return problems;

@@ -120,7 +120,7 @@ describe('writePhantomSet', () => {
   }, 60_000);
 
   it('writePhantomSet rejects bad options, naming every problem at once', async () => {
-    await expect(writePhantomSet({ n: 0, seed: 1, size: 100 }, memorySink())).rejects.toThrow(/'n' must be an integer >= 1; got 0; 'size' must be an integer in \[128, 4096\]; got 100/);
+    await expect(writePhantomSet({ n: 0, seed: 1, size: 100 }, memorySink())).rejects.toThrow(/'n' must be an integer >= 1; got 0; 'size' must be an integer in \[128, 2048\]; got 100/);
     expect(phantomSetProblems({ n: 1.5, seed: -1, size: 128, format: 'jpg' as 'png', bitDepth: 12 as 8 })).toHaveLength(4);
     expect(phantomSetProblems({ n: 1, seed: 0 })).toEqual([]);
     expect(phantomSetProblems({ n: Number.NaN, seed: Number.NaN })).toHaveLength(2);

@@ -46,7 +46,7 @@ describe('tessera phantom', () => {
   it('runPhantom rejects n < 1, size < 128, an unknown format and a missing --out with one line and exit code 2', async () => {
     const cases: [string[], RegExp][] = [
       [['--n', '0', '--seed', '1', '--out', join(root, 'x')], /--n must be an integer in \[1, /],
-      [['--n', '2', '--seed', '1', '--out', join(root, 'x'), '--size', '100'], /--size must be an integer in \[128, 4096\]; got '100'/],
+      [['--n', '2', '--seed', '1', '--out', join(root, 'x'), '--size', '100'], /--size must be an integer in \[128, 2048\]; got '100'/],
       [['--n', '2', '--seed', '1', '--out', join(root, 'x'), '--format', 'jpg'], /--format must be one of png, dcm, mixed; got 'jpg'/],
       [['--n', '2', '--seed', '1'], /--out is required/],
       [['--seed', '1', '--out', join(root, 'x')], /--n is required/],

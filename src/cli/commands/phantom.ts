@@ -1,5 +1,5 @@
 import { createNodeFileSink } from '../../dataset/node-file-source';
-import { PHANTOM_FORMATS, type PhantomFormat } from '../../phantom/phantom-set-options';
+import { MAX_PHANTOM_SIZE, PHANTOM_FORMATS, type PhantomFormat } from '../../phantom/phantom-set-options';
 import { MIN_PHANTOM_SIZE } from '../../phantom/generate-phantom-study';
 import { writePhantomSet } from '../../phantom/write-phantom-set';
 import { progressPrinter, type CommandIo } from '../io';
@@ -18,7 +18,7 @@ export async function runPhantom(argv: string[], io: CommandIo): Promise<number>
     const n = integerOption(args, 'n', Number.NaN, 1);
     if (Number.isNaN(n)) throw new UsageError('--n is required (the number of studies, at least 1)');
     const seed = integerOption(args, 'seed', 1, 0);
-    const size = integerOption(args, 'size', 512, MIN_PHANTOM_SIZE, 4096);
+    const size = integerOption(args, 'size', 512, MIN_PHANTOM_SIZE, MAX_PHANTOM_SIZE);
     const format = single(args, 'format') ?? 'png';
     if (!PHANTOM_FORMATS.includes(format as PhantomFormat)) throw new UsageError(`--format must be one of ${PHANTOM_FORMATS.join(', ')}; got '${format}'`);
     const bitDepth = integerOption(args, 'bit-depth', 8, 8, 16);
