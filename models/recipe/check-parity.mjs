@@ -60,7 +60,9 @@ async function checkFolder(dir) {
   const tokenizer = new PreTrainedTokenizer(JSON.parse(readFileSync(join(dir, manifest.text.tokenizer), 'utf8')), config);
   if (tokenizer.pad_token_id !== 0) problems.push(`pad token id ${tokenizer.pad_token_id}, expected 0 ([PAD])`);
   ref.text.sentences.forEach((sentence, i) => {
-    const ids = tokenizer.encode(sentence);
+    const full = tokenizer.encode(sentence);
+    // Truncation keeps [CLS] and [SEP] and drops words from the end, as the Python side does.
+    const ids = full.length <= ref.text.max_tokens ? full : [...full.slice(0, ref.text.max_tokens - 1), full[full.length - 1]];
     const expected = ref.text.input_ids.values[i].filter((_, j) => ref.text.attention_mask.values[i][j] === 1);
     if (String(ids) !== String(expected)) problems.push(`tokens of ${JSON.stringify(sentence)}: ${ids} vs ${expected}`);
   });

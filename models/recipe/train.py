@@ -10,6 +10,8 @@ CLIP, Radford et al. 2021):
   the regions (softmax-weighted mean with temperature --pool-temperature, or max), then averaged over
   the sentences of a study -> a study x image score matrix.
 - global: mean-pooled regions vs the mean of the study's sentence embeddings.
+The local objective adds (weight --sentence-nce, default 1) a per-sentence InfoNCE from each sentence
+to the batch's images, with every image whose report holds the same sentence counted as a positive.
 Only non-negated sentences enter either loss: a negated sentence ("No effusion.") describes no region.
 A study with no non-negated sentence still serves as a negative image.
 AdamW, linear warm-up then cosine decay, gradient-norm clipping at 5.
@@ -53,8 +55,8 @@ def parse_args(argv):
     p.add_argument('--lr', type=float, default=2e-3)
     p.add_argument('--weight-decay', type=float, default=1e-4)
     p.add_argument('--warmup', type=float, default=0.05, help='share of steps in linear warm-up')
-    p.add_argument('--sentence-nce', type=float, default=0.0,
-                   help='weight of an extra per-sentence sentence-to-image InfoNCE term (local objective)')
+    p.add_argument('--sentence-nce', type=float, default=1.0,
+                   help='weight of the per-sentence sentence-to-image InfoNCE term (local objective; 0 turns it off)')
     p.add_argument('--seed', type=int, default=7)
     p.add_argument('--threads', type=int, default=2)
     p.add_argument('--minutes', type=float, default=0.0,
@@ -95,8 +97,9 @@ def pool_regions(sim, pooling, temperature):
     return (weights * sim).sum(dim=-1)
 
 
-def batch_loss(model, args, image, token_lists, owner):
-    """InfoNCE both ways over the study x image score matrix. owner[s] = batch row of sentence s."""
+def batch_loss(model, args, image, token_lists, owner, positives=None):
+    """InfoNCE both ways over the study x image score matrix. owner[s] = batch row of sentence s;
+    positives [S, B] bool marks each image whose report holds sentence s (for the per-sentence term)."""
     regions = model.image(image)  # [B, D, h, w]
     b, d = regions.shape[:2]
     regions = F.normalize(regions.flatten(2).transpose(1, 2), dim=-1)  # [B, N, D]
@@ -128,7 +131,14 @@ def batch_loss(model, args, image, token_lists, owner):
     i2t = F.cross_entropy(logits[:, rows].t(), torch.arange(len(rows)))
     loss = 0.5 * (t2i + i2t)
     if sent_score is not None and args.sentence_nce > 0:
-        loss = loss + args.sentence_nce * F.cross_entropy(sent_score / CONTRAST_TEMPERATURE, owner)
+        # Multi-positive InfoNCE per sentence: every image whose report holds the same sentence is a
+        # positive, so a sentence repeated across studies ("The trachea is central.") adds no false negatives.
+        if positives is None:
+            positives = torch.zeros_like(sent_score, dtype=torch.bool)
+            positives[torch.arange(len(owner)), owner] = True
+        sl = sent_score / CONTRAST_TEMPERATURE
+        nce = torch.logsumexp(sl, 1) - torch.logsumexp(sl.masked_fill(~positives, float('-inf')), 1)
+        loss = loss + args.sentence_nce * nce.mean()
     return loss
 
 
@@ -166,6 +176,7 @@ def main(argv=None):
     config['stride_px'] = model.image.stride_px
     n = len(studies)
     with_text = np.array([len(p) > 0 for p in positive])
+    positive_sets = [set(tuple(t) for t in p) for p in positive]
     print(f'train: {n} studies ({int(with_text.sum())} with non-negated sentences), vocab {len(tokenizer.vocab)}, '
           f'field {model.image.field_px} px, objective {args.objective}/{config["pooling"]}, '
           f'prepared in {time.time() - started:.0f} s', flush=True)
@@ -195,9 +206,10 @@ def main(argv=None):
                     sents = [sents[j] for j in rng.choice(len(sents), args.max_sentences, replace=False)]
                 token_lists += sents
                 owner += [row] * len(sents)
+            positives = torch.tensor([[tuple(t) in positive_sets[i] for i in idx] for t in token_lists])
             for group in optim.param_groups:
                 group['lr'] = learning_rate(step, total, args)
-            loss = batch_loss(model, args, x, token_lists, owner)
+            loss = batch_loss(model, args, x, token_lists, owner, positives)
             optim.zero_grad()
             loss.backward()
             torch.nn.utils.clip_grad_norm_(model.parameters(), 5.0)
