@@ -6,7 +6,7 @@ Research tool, not a medical device: not for diagnosis or treatment.
 
 usage: npm run tessera -- VERB [options]
   inspect --model DIR                         validate a model folder and run one dummy input through each encoder
-  phantom --n N --seed S --out DIR [--size PX] [--format png|dcm]
+  phantom --n N --seed S --out DIR [--size PX] [--format png|dcm|mixed] [--bit-depth 8|16] [--masks]
                                               write a synthetic sample set with reference boxes
   score --model DIR [--model DIR ...] --set DIR --out DIR
         [--aggregator max|softmax:T|lse:R|topk:K] [--hit centre|overlap|upsampled]

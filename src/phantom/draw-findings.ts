@@ -2,7 +2,7 @@ import type { Rng } from '../core/seeded-random';
 import { boxBlur } from './box-blur';
 import { diaphragmRow, lungSampler, lateralOffset, medialOffset, type ChestGeometry, type LungShape } from './chest-geometry';
 import type { AnatomyMasks } from './draw-chest-density';
-import type { ZoneRow } from './lung-zone-rects';
+import type { ZoneRow } from './zone-names';
 import type { FindingPlan } from './plan-findings';
 import { strokeSegment } from './stroke-segment';
 import { valueNoise } from './value-noise';

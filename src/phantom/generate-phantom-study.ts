@@ -8,7 +8,7 @@ import { composeReport, type ReportFinding, type ReportSentence } from './compos
 import { drawChestDensity, drawSoftTissue, drawVessels } from './draw-chest-density';
 import { drawFindings } from './draw-findings';
 import { planFindings, type FindingKind } from './plan-findings';
-import { lungZoneRects } from './lung-zone-rects';
+import { zonesFromLungs } from '../core/lung-zones';
 import { maskArea, maskBounds } from './mask-bounds';
 import { transformImage, transformMask, type PlaneTransform } from './transform-image';
 
@@ -86,7 +86,7 @@ export function generatePhantomStudy(rng: Rng, { size = 512, id = 'phantom', cre
   const rightBox = maskBounds(right, n)!;
   const leftBox = maskBounds(left, n)!;
   const lungs: LungTemplate = { study: id, right: rightBox, left: leftBox, annotator: PHANTOM_ANNOTATOR, created };
-  const zoneRects = lungZoneRects(lungs);
+  const zoneRects = zonesFromLungs(lungs);
   const findingMasks: PhantomFindingMask[] = [];
   const reportFindings: ReportFinding[] = [];
   for (const f of layers.findings) {

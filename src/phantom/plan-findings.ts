@@ -1,6 +1,6 @@
 import type { Rng } from '../core/seeded-random';
 import type { Side } from './chest-geometry';
-import type { ZoneRow } from './lung-zone-rects';
+import type { ZoneRow } from './zone-names';
 
 export type FindingKind = 'consolidation' | 'nodule' | 'effusion' | 'pneumothorax' | 'atelectasis' | 'cardiomegaly' | 'edema';
 
