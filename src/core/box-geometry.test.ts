@@ -2,6 +2,9 @@ import { describe, expect, it } from 'vitest';
 import {
   areaInsideUnion,
   countPixelCentresInUnion,
+  coveredAreas,
+  coveredAreasInto,
+  rectEdges,
   intersectionArea,
   mirrorRect,
   pointInRect,
@@ -66,6 +69,18 @@ describe('unionArea', () => {
     expect(areaInsideUnion(cell, [{ x: 5, y: 0, w: 20, h: 20 }, { x: 0, y: 5, w: 20, h: 20 }])).toBe(75);
     expect(areaInsideUnion(cell, [])).toBe(0);
   });
+  it('coveredAreasInto(rects, edges, boxes, out) equals areaInsideUnion exactly for 0 to 4 boxes', () => {
+    const r = createRng(81);
+    const rects = Array.from({ length: 49 }, (_, i) => ({ x: (i % 7) * 14.3, y: Math.floor(i / 7) * 11.7, w: 14.3, h: 11.7 }));
+    const edges = rectEdges(rects);
+    const out = new Float64Array(rects.length);
+    for (let t = 0; t < 100; t++) {
+      const boxes = Array.from({ length: r.int(5) }, () => ({ x: r.next() * 90, y: r.next() * 70, w: 1 + r.next() * 40, h: 1 + r.next() * 40 }));
+      coveredAreasInto(rects, edges, boxes, out);
+      for (let i = 0; i < rects.length; i++) expect(out[i]).toBe(areaInsideUnion(rects[i], boxes));
+      expect(Array.from(coveredAreas(rects, boxes))).toEqual(Array.from(out));
+    }
+  });
 });
 
 describe('countPixelCentresInUnion', () => {
@@ -82,6 +97,22 @@ describe('countPixelCentresInUnion', () => {
         }
       }
       expect(countPixelCentresInUnion(rects, range, tol)).toBe(brute);
+    }
+  });
+  it('countPixelCentresInUnion of one rectangle matches the per-pixel test, edges on pixel centres included', () => {
+    const r = createRng(82);
+    for (let t = 0; t < 200; t++) {
+      const half = t % 2 === 0;
+      const rect = half
+        ? { x: r.int(40) + 0.5, y: r.int(40) + 0.5, w: r.int(20), h: r.int(20) }
+        : { x: r.next() * 50 - 5, y: r.next() * 50 - 5, w: r.next() * 30, h: r.next() * 30 };
+      const tol = t % 3 === 0 ? 0 : r.int(3);
+      const range = { firstX: r.int(8), lastX: 30 + r.int(20), firstY: r.int(8), lastY: 30 + r.int(20) };
+      let brute = 0;
+      for (let py = range.firstY; py <= range.lastY; py++) {
+        for (let px = range.firstX; px <= range.lastX; px++) if (pointInRect({ x: px + 0.5, y: py + 0.5 }, rect, tol)) brute++;
+      }
+      expect(countPixelCentresInUnion([rect], range, tol), `case ${t}`).toBe(brute);
     }
   });
 });

@@ -48,6 +48,17 @@ describe('groundSentence', () => {
     const a = study('letterbox', values, [{ x: 100, y: 100, w: 300, h: 200 }]);
     expect(groundSentence({ ...a, geometry: prepareStudyGeometry(a.transform, a.grid, a.cells) })).toEqual(groundSentence(a));
   });
+  it('groundSentence reusing one geometry (and its scratch) across many sentences matches a fresh geometry each time', () => {
+    const r = createRng(54);
+    const first = study('centre-crop', new Float32Array(49), []);
+    const geometry = prepareStudyGeometry(first.transform, first.grid, first.cells);
+    for (let c = 0; c < 40; c++) {
+      const values = Float32Array.from({ length: 49 }, () => (c % 5 === 0 ? r.int(3) : r.normal()));
+      const boxes = Array.from({ length: r.int(4) }, () => ({ x: r.int(600), y: r.int(400), w: 1 + r.int(390), h: 1 + r.int(390) }));
+      const a = study('centre-crop', values, boxes);
+      expect(groundSentence({ ...a, geometry })).toEqual(groundSentence({ ...a, geometry: prepareStudyGeometry(a.transform, a.grid, a.cells) }));
+    }
+  });
   it('groundSentence with no boxes: no hits, zero chance and mass, CNR undefined', () => {
     const g = groundSentence(study('stretch', new Float32Array(49).map((_, i) => i), []));
     expect(g.hits).toEqual({ centre: false, overlap: false, upsampled: false });
