@@ -19,9 +19,10 @@ export function createHttpFileSource(baseUrl: string, { fetch = globalThis.fetch
   const shown = label ?? base.pathname.replace(/\/$/, '');
   const urlOf = (path: string): string => new URL(pathSegments(path).map(encodeURIComponent).join('/'), base).href;
   async function get(path: string): Promise<Response> {
+    const url = urlOf(path);
     let res: Response;
     try {
-      res = await fetch(urlOf(path));
+      res = await fetch(url);
     } catch (cause) {
       throw new Error(`${shown}/${path}: the page could not read the file (${(cause as Error).message}); reload the page, or restart the server that serves it.`, { cause });
     }
