@@ -99,14 +99,20 @@ def main(argv=None):
         return torch.cat(rows)
 
     # Localisable positive sentences: tied to reference boxes by their text, and not negated.
-    items = []
+    # The phantom labels each sentence with its finding (labels.sentences), used only to break the
+    # figures down; a set without them counts every sentence under 'unlabelled'.
+    items, findings = [], []
     for i, s in enumerate(studies):
-        by_text = {}
+        labelled = {l.get('index'): l.get('finding') for l in (s.get('labels') or {}).get('sentences', [])
+                    if isinstance(l, dict)}
+        by_text, finding_of = {}, {}
         for b in boxes.get(s['id'], []):
             by_text.setdefault(b['sentence']['text'], []).append(b['box'])
+            finding_of[b['sentence']['text']] = labelled.get(b['sentence']['index']) or 'unlabelled'
         for text, bs in by_text.items():
             if not is_negated(text):
                 items.append((i, text, bs))
+                findings.append(finding_of[text])
     texts = [t for _, t, _ in items]
     emb = embed(texts)
     hits, chances = [], []
@@ -123,6 +129,12 @@ def main(argv=None):
 
         hits.append(inside(centres[best]))
         chances.append(sum(inside(c) for c in centres) / len(centres))
+
+    by_finding = {}
+    for f in sorted(set(findings)):
+        ks = [k for k, g in enumerate(findings) if g == f]
+        by_finding[f] = {'n': len(ks), 'pointing': round(float(np.mean([hits[k] for k in ks])), 4),
+                         'chance': round(float(np.mean([chances[k] for k in ks])), 4)}
 
     scores = score_all(emb)
     own = torch.tensor([i for i, _, _ in items])
@@ -149,6 +161,7 @@ def main(argv=None):
         'sentence_to_image_r1_strict': round(strict, 4) if strict is not None else None,
         'sentence_to_image_r1_text_aware': round(aware, 4) if aware is not None else None,
         'report_to_image_r1': round(r2i, 4), 'image_to_report_r1': round(i2r, 4),
+        'by_finding': by_finding,
         'scored_with': config['pooling'], 'weights': 'random' if args.untrained else 'trained',
     }
     print(json.dumps(result, indent=1))

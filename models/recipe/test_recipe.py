@@ -26,15 +26,21 @@ class ReceptiveFieldTest(unittest.TestCase):
         # 1 + (3 - 1) * 1 + (3 - 1) * 2 = 7, jump 2
         self.assertEqual(nets.receptive_field([('conv', 1, 3, 2), ('conv', 1, 3, 1)]), (7, 2))
         self.assertEqual(nets.receptive_field([]), (1, 1))
+        # dilation d spreads a k-tap kernel over (k - 1) * d + 1 pixels
+        self.assertEqual(nets.receptive_field([('conv', 1, 3, 1, 3)]), (7, 1))
 
     def test_receptive_field_of_the_demo_layouts(self):
         self.assertEqual(nets.receptive_field(nets.SMALL_FIELD), (60, 16))
         self.assertEqual(nets.receptive_field(nets.WIDE_FIELD), (156, 16))
 
     def test_receptive_field_matches_the_gradient_support(self):
-        # The cells a single input pixel can influence span field / stride cells at most.
+        for field in ('small', 'wide'):
+            with self.subTest(field=field):
+                self.check_gradient_support(field)
+
+    def check_gradient_support(self, field):
         torch.manual_seed(0)
-        enc = nets.ImageEncoder('small', dim=8, coords=False).eval()
+        enc = nets.ImageEncoder(field, dim=8, coords=False).eval()
         x = torch.randn(1, 1, 224, 224, requires_grad=True)
         enc(x)[0, :, 7, 7].sum().backward()
         rows = torch.nonzero(x.grad[0, 0].abs().sum(1)).flatten()
