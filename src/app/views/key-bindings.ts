@@ -27,8 +27,8 @@ export const KEY_BINDINGS: readonly KeyBinding[] = [
   { keys: ['↑', '↓'], action: 'Previous / next report sentence', group: 'Report and studies' },
   { keys: ['PageUp', 'PageDown'], action: 'Previous / next study', group: 'Report and studies' },
   { keys: ['[', ']'], action: 'Previous / next study', group: 'Report and studies' },
-  { keys: ['B'], action: 'Draw a reference box for the selected sentence', group: 'Reference boxes' },
-  { keys: ['S'], action: 'Select, move and resize boxes', group: 'Reference boxes' },
+  { keys: ['V'], action: 'Inspect: point at cells, click a cell to rank sentences; no editing', group: 'Reference boxes' },
+  { keys: ['B'], action: 'Boxes: drag to draw a box for the selected sentence; drag a box to move it, its handles to resize', group: 'Reference boxes' },
   { keys: ['L'], action: 'Mark the lung template (right lung, then left lung)', group: 'Reference boxes' },
   ...Object.entries(ZONE_KEYS).map(([key, zone]): KeyBinding => ({
     keys: [key],

@@ -5,7 +5,6 @@ import { gridCellRects } from '../../core/grid-geometry';
 import { prepareStudyGeometry, type StudyGeometry } from '../../core/hit-rules';
 import { poolRegions } from '../../core/pool-regions';
 import { groundSentence, type SentenceGrounding } from '../../core/ground-sentence';
-import { summariseRate, type RateWithChance } from '../../core/rate-summary';
 import type { ParsedSentence } from '../../report/types';
 import type { SentenceOutcome } from './ReportPanel';
 
@@ -87,12 +86,4 @@ export function groundStudy(a: StudyGroundingArgs): SentenceAnalysis[] {
     const outcome: SentenceOutcome = sentence.negated ? 'negated' : boxes.length === 0 ? 'no-boxes' : grounding.hits[a.hitRule] ? 'hit' : 'miss';
     return { sentence, values, score: poolRegions(values, a.aggregator), grounding, boxes, outcome };
   });
-}
-
-/** Hits, misses and chance over a study's scored sentences (src/core summariseRate). */
-export function summariseStudy(rows: readonly SentenceAnalysis[], hitRule: HitRule): RateWithChance {
-  const scored = rows.filter((r) => r.outcome === 'hit' || r.outcome === 'miss');
-  const hits = scored.filter((r) => r.outcome === 'hit').length;
-  const chance = scored.reduce((s, r) => s + r.grounding.chance[hitRule], 0);
-  return summariseRate(hits, scored.length, chance);
 }
