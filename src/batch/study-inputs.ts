@@ -2,7 +2,7 @@ import type { ImageRect, Size, ZoneLabel } from '../core/types';
 import type { DecodedImage, FileSource, ReferenceBox, SampleSetManifest, StudyRecord } from '../dataset/types';
 import type { ParsedReport } from '../report/types';
 import { parseReport } from '../report/parse-report';
-import { decodeImage } from '../dataset/decode-image';
+import { decodeImage, readImageSize } from '../dataset/decode-image';
 import { loadSampleSet } from '../dataset/sample-set';
 import { loadAnnotations } from '../dataset/annotations';
 import type { Problem } from '../dataset/errors';
@@ -44,7 +44,7 @@ export function viewBoxes(boxes: readonly ReferenceBox[] | undefined): BoxView {
 }
 
 /**
- * Opens a sample set: validates set.json, decodes each image once to learn its size (a study whose
+ * Opens a sample set: validates set.json, reads each image's size from its header (a study whose
  * image is missing or unreadable is skipped with its reason), parses every report, and loads the
  * annotation file (stale or invalid boxes are listed as problems and left out, never re-attached).
  */
@@ -69,8 +69,8 @@ export async function openSet(source: FileSource, { signal }: { signal?: AbortSi
     if (seen.has(study.id)) continue;
     seen.add(study.id);
     try {
-      const image = decodeImage(await source.readBytes(study.image), study.image);
-      sizes.set(study.id, { width: image.width, height: image.height });
+      // The header is enough to check boxes; a file damaged past its header fails when scored.
+      sizes.set(study.id, readImageSize(await source.readBytes(study.image), study.image));
     } catch (err) {
       const reason = (err as Error).message;
       problems.push({ code: 'unreadable-image', file: study.image, item: study.id, message: reason, fix: 'replace the image with a readable PNG, JPEG or uncompressed DICOM file' });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PNG } from 'pngjs';
 import { encode as encodeJpeg } from 'jpeg-js';
-import { decodeImage, PNG_SYNTHETIC_KEYWORD, sniffImageFormat } from './decode-image';
+import { decodeImage, PNG_SYNTHETIC_KEYWORD, readImageSize, sniffImageFormat } from './decode-image';
 import { encodePng } from './png-codec';
 import { encodeDicom } from './dicom-writer';
 import { DatasetError } from './errors';
@@ -72,5 +72,20 @@ describe('decodeImage', () => {
         expect((e as DatasetError).message.startsWith(name)).toBe(true);
       }
     }
+  });
+});
+
+describe('readImageSize', () => {
+  it('readImageSize(bytes) reads PNG and JPEG sizes from the header and agrees with decodeImage', () => {
+    const png = encodePng({ width: 7, height: 5, bitDepth: 8, data: new Uint8Array(35) });
+    expect(readImageSize(png, 'a.png')).toEqual({ width: 7, height: 5 });
+    const rgba = new Uint8Array(9 * 4 * 4).fill(128);
+    const jpeg = new Uint8Array(encodeJpeg({ width: 9, height: 4, data: rgba }, 90).data);
+    expect(readImageSize(jpeg, 'a.jpg')).toEqual({ width: 9, height: 4 });
+    const decoded = decodeImage(jpeg, 'a.jpg');
+    expect([decoded.width, decoded.height]).toEqual([9, 4]);
+  });
+  it('readImageSize rejects a file that is no image with the decoder error naming the file', () => {
+    expect(() => readImageSize(new Uint8Array([1, 2, 3, 4]), 'x.bin')).toThrow(/x\.bin/);
   });
 });

@@ -94,3 +94,37 @@ export function decodeImage(bytes: Uint8Array, fileName: string): DecodedImage {
     fix: READ_FIX,
   });
 }
+
+function pngHeaderSize(bytes: Uint8Array): { width: number; height: number } | undefined {
+  // IHDR is the first chunk: signature (8), length (4), 'IHDR' (4), width (4), height (4).
+  if (bytes.length < 24 || bytes[12] !== 0x49 || bytes[13] !== 0x48 || bytes[14] !== 0x44 || bytes[15] !== 0x52) return undefined;
+  const v = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  return { width: v.getUint32(16), height: v.getUint32(20) };
+}
+
+function jpegHeaderSize(bytes: Uint8Array): { width: number; height: number } | undefined {
+  let p = 2;
+  while (p + 9 < bytes.length) {
+    if (bytes[p] !== 0xff) return undefined;
+    const marker = bytes[p + 1];
+    const length = (bytes[p + 2] << 8) | bytes[p + 3];
+    // Start-of-frame markers SOF0..SOF15, except DHT (C4), JPG (C8) and DAC (CC), carry the size.
+    if (marker >= 0xc0 && marker <= 0xcf && marker !== 0xc4 && marker !== 0xc8 && marker !== 0xcc) {
+      return { height: (bytes[p + 5] << 8) | bytes[p + 6], width: (bytes[p + 7] << 8) | bytes[p + 8] };
+    }
+    p += 2 + length;
+  }
+  return undefined;
+}
+
+/**
+ * The image's size in pixels, read from the PNG or JPEG header without decoding the pixels
+ * (DICOM files are decoded). Throws the same DatasetError as decodeImage for an unreadable file.
+ */
+export function readImageSize(bytes: Uint8Array, fileName: string): { width: number; height: number } {
+  const format = sniffImageFormat(bytes);
+  const quick = format === 'png' ? pngHeaderSize(bytes) : format === 'jpeg' ? jpegHeaderSize(bytes) : undefined;
+  if (quick && quick.width > 0 && quick.height > 0) return quick;
+  const image = decodeImage(bytes, fileName);
+  return { width: image.width, height: image.height };
+}
