@@ -31,7 +31,7 @@ export function CellSentenceList({ cell, grid, sim, sentences, onSelect, limit =
         {ranked.map(({ s, v }) => (
           <li key={s.index}>
             <button type="button" className="t-linkish" onClick={() => onSelect(s.index)} title="Select this sentence">
-              <span className="t-cellrank__v">{v.toFixed(3)}</span> {s.index + 1}. {s.text}
+              <span className="t-cellrank__v">{v.toFixed(3)}</span> <span className="t-cellrank__n">S{s.index + 1}</span> {s.text}
               {s.negated && <span className="t-tag t-tag--neg">negated</span>}
             </button>
           </li>

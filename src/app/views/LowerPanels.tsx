@@ -36,7 +36,7 @@ export function LowerPanels(p: LowerPanelsProps) {
   const colourOf = (v: number) => (domain ? (cividisHex(normaliseToDomain(v, domain)) ?? '#000') : '#000');
   const bestCells = p.vm.analysis?.map((a) => a.grounding.bestCell.index);
   return (
-    <section className="t-bottom" aria-label="Study details and set scoring">
+    <section className={`t-bottom${p.active === 'results' ? ' t-bottom--tall' : ''}`} aria-label="Study details and set scoring">
       <TabbedPanel
         label="Views"
         active={p.active}

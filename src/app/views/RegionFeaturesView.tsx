@@ -11,7 +11,7 @@ export interface RegionFeaturesViewProps {
   readonly onHighlightCell: (cell: number | undefined) => void;
 }
 
-const SIZE = 220;
+const SIZE = 176;
 
 /**
  * The study's region embeddings reduced to their first three principal components

@@ -24,12 +24,12 @@ function tallyFromBatch(result: BatchResult | undefined, hitRule: HitRule): Map<
   if (!result) return out;
   const by = new Map<string, { hits: number; n: number; chance: number }>();
   for (const r of result.records) {
-    if (!r.scored) continue;
     const t = by.get(r.study) ?? { hits: 0, n: 0, chance: 0 };
+    by.set(r.study, t);
+    if (!r.scored) continue;
     t.n++;
     if (r.hits[hitRule]) t.hits++;
     t.chance += r.chance[hitRule];
-    by.set(r.study, t);
   }
   for (const [study, t] of by) out.set(study, summariseRate(t.hits, t.n, t.chance));
   return out;
