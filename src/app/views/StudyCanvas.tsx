@@ -54,7 +54,20 @@ export function StudyCanvas(p: StudyCanvasProps) {
   const sizeKey = imageSize ? `${imageSize.width}x${imageSize.height}` : '';
   const stableImageSize = useMemo(() => imageSize, [sizeKey]);
   const { viewport, zoomAt, pan } = useViewport(stableImageSize, size, p.zoomRequest);
-  const bitmap = useMemo(() => (p.image ? paintGreyImage(p.image, state.view.window) : undefined), [p.image, state.view.window]);
+  const shown = size.width > 0 && size.height > 0;
+  const painted = useMemo(() => {
+    if (!p.image || !shown) return undefined;
+    try {
+      return { canvas: paintGreyImage(p.image, state.view.window) };
+    } catch (err) {
+      return { error: (err as Error).message };
+    }
+  }, [p.image, state.view.window, shown]);
+  const bitmap = painted && 'canvas' in painted ? painted.canvas : undefined;
+  const { onProblem } = p;
+  useEffect(() => {
+    if (painted && 'error' in painted) onProblem(painted.error);
+  }, [painted, onProblem]);
 
   const viewportRef = useRef(viewport);
   viewportRef.current = viewport;
@@ -138,7 +151,7 @@ export function StudyCanvas(p: StudyCanvasProps) {
       style={{ cursor }}
       onContextMenu={(e) => e.preventDefault()}
     >
-      {size.width > 0 && size.height > 0 && (
+      {shown && (
         <Stage
           width={size.width}
           height={size.height}
