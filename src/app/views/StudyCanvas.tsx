@@ -58,16 +58,17 @@ export function StudyCanvas(p: StudyCanvasProps) {
   const painted = useMemo(() => {
     if (!p.image || !shown) return undefined;
     try {
-      return { canvas: paintGreyImage(p.image, state.view.window) };
+      return { canvas: paintGreyImage(p.image, state.view.window), error: undefined };
     } catch (err) {
-      return { error: (err as Error).message };
+      return { canvas: undefined, error: (err as Error).message };
     }
   }, [p.image, state.view.window, shown]);
-  const bitmap = painted && 'canvas' in painted ? painted.canvas : undefined;
+  const bitmap = painted?.canvas;
+  const paintError = painted?.error;
   const { onProblem } = p;
   useEffect(() => {
-    if (painted && 'error' in painted) onProblem(painted.error);
-  }, [painted, onProblem]);
+    if (paintError !== undefined) onProblem(paintError);
+  }, [paintError, onProblem]);
 
   const viewportRef = useRef(viewport);
   viewportRef.current = viewport;
