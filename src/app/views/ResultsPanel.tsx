@@ -10,6 +10,16 @@ export interface ResultsPanelProps {
   readonly extraDownloads?: readonly { readonly label: string; readonly file: string; readonly make: () => string | Uint8Array }[];
 }
 
+function FigureImage({ name, png }: { readonly name: string; readonly png: Uint8Array }) {
+  const [url, setUrl] = useState<string | undefined>();
+  useEffect(() => {
+    const u = URL.createObjectURL(new Blob([new Uint8Array(png)], { type: 'image/png' }));
+    setUrl(u);
+    return () => URL.revokeObjectURL(u);
+  }, [png]);
+  return <figure className="t-figure">{url && <img src={url} alt={`Figure ${name}`} />}<figcaption>{name}</figcaption></figure>;
+}
+
 function ResultTable({ table }: { readonly table: TableContent }) {
   return (
     <figure className="t-table">
@@ -95,6 +105,15 @@ export function ResultsPanel({ result, extraDownloads = [] }: ResultsPanelProps)
               <ResultTable key={t.id} table={t} />
             ))}
           </div>
+          {files && (
+            <div className="t-results__figures">
+              {[...files.entries()]
+                .filter(([path, data]) => path.endsWith('.png') && typeof data !== 'string')
+                .map(([path, data]) => (
+                  <FigureImage key={path} name={path} png={data as Uint8Array} />
+                ))}
+            </div>
+          )}
         </>
       )}
     </div>

@@ -109,6 +109,8 @@ export function useExplorerSession({ store, client, demo, setupProblems, autosav
     };
   }, [demo, openModel, openSampleSet, addProblems]);
 
+  const addProblem = useCallback((m: string) => addProblems([m]), [addProblems]);
+  const clearProblems = useCallback(() => setProblems([]), []);
   return {
     model: model?.model,
     modelLabel: model?.label,
@@ -119,7 +121,7 @@ export function useExplorerSession({ store, client, demo, setupProblems, autosav
     openModel,
     openSampleSet,
     openFolder,
-    addProblem: (m) => addProblems([m]),
-    clearProblems: () => setProblems([]),
+    addProblem,
+    clearProblems,
   };
 }
