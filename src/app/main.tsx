@@ -5,6 +5,7 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './App';
 import { createAppStore } from './state';
+import { createAutosave, type Autosave } from './state/autosave';
 import { createInferenceClient } from './inference/inference-client';
 import { openIdbEmbeddingCache } from './inference/idb-embedding-cache';
 import type { AppServices } from './inference/app-services';
@@ -24,8 +25,18 @@ async function start(): Promise<void> {
     setupProblems.push('The page is not cross-origin isolated, so the model runs on one thread; serve it with "npm run dev" or "npm run preview", which send the isolation headers.');
   }
   const worker = new Worker(new URL('./inference/inference-worker.ts', import.meta.url), { type: 'module', name: 'tessera-inference' });
+  const store = createAppStore();
+  let autosave: Autosave | undefined;
+  try {
+    autosave = createAutosave(store, { dbName: 'tessera-annotations' });
+  } catch (err) {
+    setupProblems.push(`Boxes will not be saved automatically (export them before you leave): ${(err as Error).message}`);
+  }
+  // Unsaved edits are written before the page goes away.
+  addEventListener('pagehide', () => void autosave?.flush());
   const services: AppServices = {
-    store: createAppStore(),
+    store,
+    autosave,
     client: createInferenceClient(worker, { cache }),
     demo: openDemoSources({ base: import.meta.env.BASE_URL }),
     setupProblems,

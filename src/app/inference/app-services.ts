@@ -1,4 +1,5 @@
 import type { AppStore } from '../state';
+import type { Autosave } from '../state/autosave';
 import type { DemoSources } from '../sources/demo-sources';
 import type { InferenceClient } from './inference-client';
 
@@ -10,4 +11,6 @@ export interface AppServices {
   readonly demo: Promise<DemoSources>;
   /** Problems setting up the page (e.g. no IndexedDB), shown to the user; the page still runs. */
   readonly setupProblems: readonly string[];
+  /** Saves boxes and lung templates to IndexedDB on every change; absent when IndexedDB is not available. */
+  readonly autosave?: Autosave;
 }
