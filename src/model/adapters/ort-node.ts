@@ -1,6 +1,6 @@
 import * as ort from 'onnxruntime-node';
-import type { InferenceEngine, InferenceSession, NamedTensor } from '../types';
-import { checkFeed, toNamedTensor } from './ort-tensors';
+import type { InferenceEngine } from '../types';
+import { wrapOrtSession } from './ort-tensors';
 
 /** An InferenceEngine over onnxruntime-node (CPU), for the CLI. Node only. */
 export async function createOrtNodeEngine({ threads = 2 }: { threads?: number } = {}): Promise<InferenceEngine> {
@@ -16,7 +16,7 @@ export async function createOrtNodeEngine({ threads = 2 }: { threads?: number } 
         interOpNumThreads: 1,
         graphOptimizationLevel: 'all',
       });
-      return wrapSession(session);
+      return wrapOrtSession(session, (t) => new ort.Tensor(t.type, t.data, t.dims));
     },
   };
 }
@@ -27,21 +27,3 @@ function checkThreads(threads: number): void {
   }
 }
 
-function wrapSession(session: ort.InferenceSession): InferenceSession {
-  return {
-    inputNames: [...session.inputNames],
-    outputNames: [...session.outputNames],
-    async run(feeds: Readonly<Record<string, NamedTensor>>) {
-      const ortFeeds: Record<string, ort.Tensor> = {};
-      for (const [name, t] of Object.entries(feeds)) {
-        checkFeed(name, t);
-        ortFeeds[name] = new ort.Tensor(t.type, t.data, t.dims);
-      }
-      const results = await session.run(ortFeeds);
-      const out: Record<string, NamedTensor> = {};
-      for (const [name, t] of Object.entries(results)) out[name] = toNamedTensor(t, `output '${name}'`);
-      return out;
-    },
-    release: () => session.release(),
-  };
-}

@@ -1,4 +1,4 @@
-import type { NamedTensor } from '../types';
+import type { InferenceSession, NamedTensor } from '../types';
 
 /** The part of an onnxruntime tensor (web or node) that the adapters read. */
 export interface OrtTensorLike {
@@ -25,4 +25,35 @@ export function checkFeed(name: string, t: NamedTensor): void {
   if (t.data.length !== n) {
     throw new RangeError(`feed '${name}' must hold ${n} values for dims [${t.dims.join(', ')}]; got ${t.data.length}`);
   }
+}
+
+/** The part of an onnxruntime session (web or node) that the adapters use. */
+export interface OrtSessionLike<T> {
+  readonly inputNames: readonly string[];
+  readonly outputNames: readonly string[];
+  run(feeds: Record<string, T>): Promise<Record<string, OrtTensorLike>>;
+  release(): Promise<void>;
+}
+
+/**
+ * Wraps an onnxruntime session behind the InferenceSession interface: feeds are checked and turned
+ * into the runtime's tensors with `makeTensor`, outputs copied into plain NamedTensors.
+ */
+export function wrapOrtSession<T>(session: OrtSessionLike<T>, makeTensor: (t: NamedTensor) => T): InferenceSession {
+  return {
+    inputNames: [...session.inputNames],
+    outputNames: [...session.outputNames],
+    async run(feeds: Readonly<Record<string, NamedTensor>>) {
+      const ortFeeds: Record<string, T> = {};
+      for (const [name, t] of Object.entries(feeds)) {
+        checkFeed(name, t);
+        ortFeeds[name] = makeTensor(t);
+      }
+      const results = await session.run(ortFeeds);
+      const out: Record<string, NamedTensor> = {};
+      for (const [name, t] of Object.entries(results)) out[name] = toNamedTensor(t, `output '${name}'`);
+      return out;
+    },
+    release: () => session.release(),
+  };
 }

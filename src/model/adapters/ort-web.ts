@@ -1,5 +1,5 @@
-import type { InferenceEngine, InferenceSession, NamedTensor } from '../types';
-import { checkFeed, toNamedTensor } from './ort-tensors';
+import type { InferenceEngine } from '../types';
+import { wrapOrtSession } from './ort-tensors';
 
 type OrtWeb = typeof import('onnxruntime-web/wasm');
 
@@ -29,7 +29,7 @@ export async function createOrtWebEngine({ wasmPaths, threads = 2 }: { wasmPaths
           executionProviders: ['wasm'],
           graphOptimizationLevel: 'all',
         });
-        return wrapSession(ort, session);
+        return wrapOrtSession(session, (t) => new ort.Tensor(t.type, t.data, t.dims));
       } catch (cause) {
         const message = (cause as Error).message ?? String(cause);
         if (/no available backend/i.test(message)) {
@@ -47,21 +47,3 @@ export async function createOrtWebEngine({ wasmPaths, threads = 2 }: { wasmPaths
   };
 }
 
-function wrapSession(ort: OrtWeb, session: import('onnxruntime-web/wasm').InferenceSession): InferenceSession {
-  return {
-    inputNames: [...session.inputNames],
-    outputNames: [...session.outputNames],
-    async run(feeds: Readonly<Record<string, NamedTensor>>) {
-      const ortFeeds: Record<string, import('onnxruntime-web/wasm').Tensor> = {};
-      for (const [name, t] of Object.entries(feeds)) {
-        checkFeed(name, t);
-        ortFeeds[name] = new ort.Tensor(t.type, t.data, t.dims);
-      }
-      const results = await session.run(ortFeeds);
-      const out: Record<string, NamedTensor> = {};
-      for (const [name, t] of Object.entries(results)) out[name] = toNamedTensor(t, `output '${name}'`);
-      return out;
-    },
-    release: () => session.release(),
-  };
-}
