@@ -25,7 +25,7 @@ import torch
 import torch.nn.functional as F
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from nets import DualEncoder  # noqa: E402
+from nets import build_model  # noqa: E402
 from sample_set import is_negated, load_image, read_sample_set, split_sentences  # noqa: E402
 from wordpiece import WordPieceTokenizer, normalize  # noqa: E402
 
@@ -54,12 +54,7 @@ def main(argv=None):
     torch.set_num_threads(2)
     ckpt = torch.load(args.checkpoint, map_location='cpu')
     config = ckpt['config']
-    if args.untrained:
-        torch.manual_seed(args.seed)
-    model = DualEncoder(config)
-    if not args.untrained:
-        model.load_state_dict(ckpt['state_dict'])
-    model.eval()
+    model = build_model(ckpt, untrained=args.untrained, seed=args.seed)
     tokenizer = WordPieceTokenizer(ckpt['tokenizer']['model']['vocab'])
     manifest, boxes = read_sample_set(args.set)
     studies = manifest['studies']

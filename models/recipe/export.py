@@ -24,7 +24,7 @@ import onnx
 import torch
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from nets import DualEncoder  # noqa: E402
+from nets import build_model  # noqa: E402
 from wordpiece import WordPieceTokenizer  # noqa: E402
 
 OPSET = 17
@@ -77,12 +77,7 @@ def main(argv=None):
     torch.set_num_threads(2)
     ckpt = torch.load(args.checkpoint, map_location='cpu')
     config = ckpt['config']
-    if args.untrained:
-        torch.manual_seed(args.seed)
-    model = DualEncoder(config)
-    if not args.untrained:
-        model.load_state_dict(ckpt['state_dict'])
-    model.eval()
+    model = build_model(ckpt, untrained=args.untrained, seed=args.seed)
     tokenizer = WordPieceTokenizer(ckpt['tokenizer']['model']['vocab'])
     os.makedirs(args.out, exist_ok=True)
     size = config['size']

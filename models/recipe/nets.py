@@ -104,3 +104,15 @@ class DualEncoder(nn.Module):
         self.image = ImageEncoder(config['field'], config['dim'], 1, config['coords'])
         self.text = TextEncoder(config['vocab_size'], config['dim'], max_tokens=config['max_tokens'])
 
+
+
+def build_model(ckpt, untrained=False, seed=11):
+    """The checkpoint's dual encoder in eval mode: trained weights, or (untrained) random weights
+    drawn with the given seed, for the control that shows what chance grounding looks like."""
+    if untrained:
+        torch.manual_seed(seed)
+    model = DualEncoder(ckpt['config'])
+    if not untrained:
+        model.load_state_dict(ckpt['state_dict'])
+    model.eval()
+    return model
