@@ -27,5 +27,5 @@ export async function writeRunOutputs(shard: Shard, outDir: string, io: CommandI
     const ci = g.wilson95 ? ` [${pct(g.wilson95[0])}, ${pct(g.wilson95[1])}]` : '';
     io.stderr(`${m.id}: ${g.hits}/${g.n} sentences hit (${m.hit_rule}) = ${pct(g.rate)}${ci}; chance ${pct(g.chance)}`);
   }
-  io.stderr(`wrote ${outDir}/summary.json, sentences.csv, summary.csv, tables.md, tables.tex, figures/${dumps ? ', similarity.jsonl' : ''}`);
+  io.stderr(`wrote ${outDir}/summary.json, sentences.csv, summary.csv, comparisons.csv, tables.md, tables.tex, figures/${dumps ? ', similarity.jsonl' : ''}`);
 }
