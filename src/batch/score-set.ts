@@ -2,14 +2,9 @@ import type { Aggregator, GridShape, HitRule, ImageRect, ResizeTransform } from 
 import type { DecodedImage } from '../dataset/types';
 import type { SentenceRecord, SimilarityDump } from './types';
 import type { StudyEmbeddings } from '../core/study-score-matrix';
-import { computeSimilarityWithNormalisedCells, l2Normalise } from '../core/similarity-matrix';
-import { poolRegions } from '../core/pool-regions';
-import { groundSentence } from '../core/ground-sentence';
-import { computeResizeTransform } from '../core/resize-transform';
-import { gridCellRects } from '../core/grid-geometry';
-import { prepareStudyGeometry } from '../core/hit-rules';
 import { createRng } from '../core/seeded-random';
 import { findingOfSentence } from './sentence-finding';
+import { computeStudySimilarity, groundStudySentences } from './study-similarity';
 import { loadStudy, viewBoxes, type LoadedStudy, type OpenedSet } from './study-inputs';
 
 /** What the pipeline needs of a model: the shape of src/model's DualEncoder. */
@@ -97,23 +92,26 @@ export async function scoreStudy(
   if (embeddings.length !== nCells * dim) {
     throw new RangeError(`image embeddings of model '${encoder.id}' for study '${loaded.study.id}' have ${embeddings.length} values; expected ${nCells} cells x ${dim}`);
   }
-  const imageSize = { width: loaded.image.width, height: loaded.image.height };
-  const transform = computeResizeTransform(imageSize, { width: encoder.input.width, height: encoder.input.height }, encoder.input.resize);
-  const cells = gridCellRects(transform, grid);
-  const geometry = prepareStudyGeometry(transform, grid, cells);
   const sentences = loaded.report.sentences;
-  const sentenceEmb = await encoder.encodeSentences(sentences.map((s) => s.text));
-  const cellsNorm = l2Normalise(embeddings, nCells, dim);
-  const sentNorm = l2Normalise(sentenceEmb, sentences.length, dim);
-  const sim = computeSimilarityWithNormalisedCells(sentNorm, sentences.length, cellsNorm, nCells, dim);
+  const similarity = computeStudySimilarity({
+    cellEmbeddings: embeddings,
+    sentenceEmbeddings: await encoder.encodeSentences(sentences.map((x) => x.text)),
+    nSentences: sentences.length,
+    dim,
+    grid,
+    input: encoder.input,
+    imageSize: { width: loaded.image.width, height: loaded.image.height },
+  });
+  const { cells, normalisedCells: cellsNorm, normalisedSentences: sentNorm } = similarity;
+  const boxViews = sentences.map((x) => viewBoxes(loaded.boxesBySentence.get(x.index)));
+  const scores = groundStudySentences(similarity, (row) => boxViews[row].rects, { aggregator, tolerancePx, topK });
   const records: SentenceRecord[] = [];
   const dumps: SimilarityDump[] = [];
   const retrievalRows: number[] = [];
   for (let s = 0; s < sentences.length; s++) {
     const sentence = sentences[s];
-    const values = sim.data.subarray(s * nCells, (s + 1) * nCells);
-    const boxes = viewBoxes(loaded.boxesBySentence.get(sentence.index));
-    const g = groundSentence({ values, grid, cells, transform, imageSize, boxes: boxes.rects, tolerancePx, topK, geometry });
+    const boxes = boxViews[s];
+    const { values, score, grounding: g } = scores[s];
     const scored = boxes.rects.length > 0 && !sentence.negated;
     if (!sentence.negated) retrievalRows.push(s);
     records.push({
@@ -127,7 +125,7 @@ export async function scoreStudy(
       zones: boxes.zones,
       boxes: boxes.rects,
       scored,
-      score: poolRegions(values, aggregator),
+      score,
       bestCell: { row: g.bestCell.row, col: g.bestCell.col },
       bestPoint: g.bestPoint,
       hits: g.hits,
