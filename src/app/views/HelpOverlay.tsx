@@ -1,5 +1,6 @@
 import { useEffect, useRef } from 'react';
 import { KEY_BINDINGS, type KeyBinding } from './key-bindings';
+import { CIVIDIS_SOURCE } from './MapLegend';
 
 export interface HelpOverlayProps {
   readonly open: boolean;
@@ -59,8 +60,8 @@ export function HelpOverlay({ open, onClose }: HelpOverlayProps) {
           ))}
         </div>
         <p className="t-help__note">
-          The similarity map uses the cividis colour scale (Nuñez, Anderton &amp; Renslow 2018), which stays readable with
-          the common forms of colour-vision deficiency. Research tool — not a medical device; not for diagnosis.
+          The similarity map uses the cividis colour scale ({CIVIDIS_SOURCE}), which stays readable with the common forms
+          of colour-vision deficiency. Research tool — not a medical device; not for diagnosis.
         </p>
       </div>
     </div>

@@ -7,7 +7,10 @@ export interface MessagesBarProps {
   readonly onClearProblems: () => void;
 }
 
-/** Notices from the store (imports, restores, refused edits) and problems opening folders. */
+/**
+ * Notices from the store (imports, restores, refused edits) and problems opening folders. An
+ * error's items (why nothing was done) are shown open; other notices list theirs on request.
+ */
 export function MessagesBar({ notices, problems, onDismissNotice, onClearProblems }: MessagesBarProps) {
   if (notices.length === 0 && problems.length === 0) return null;
   return (
@@ -18,7 +21,7 @@ export function MessagesBar({ notices, problems, onDismissNotice, onClearProblem
           <span className="t-message__text">
             {n.text}
             {n.items.length > 0 && (
-              <details>
+              <details open={n.level === 'error'}>
                 <summary>{n.items.length} item{n.items.length === 1 ? '' : 's'}</summary>
                 <ul>
                   {n.items.map((it, j) => (

@@ -48,7 +48,18 @@ export function ReferenceBoxesPanel({ state, store, onProblem }: ReferenceBoxesP
       <p className="t-boxes__head">{index === undefined ? 'Select a sentence to see its boxes.' : `Sentence ${index + 1}: ${boxes.length} box${boxes.length === 1 ? '' : 'es'}`}</p>
       <ul className="t-boxes__list">
         {boxes.map((b) => (
-          <li key={b.id} className={b.id === state.selection.boxId ? 't-boxes__item t-boxes__item--sel' : 't-boxes__item'}>
+          <li
+            key={b.id}
+            className={b.id === state.selection.boxId ? 't-boxes__item t-boxes__item--sel' : 't-boxes__item'}
+            // The box's exact record (image pixels, unrounded), for tests and scripts reading the page.
+            data-box-id={b.id}
+            data-study={b.study}
+            data-sentence={b.sentence.index}
+            data-zone={b.zone}
+            data-rect={`${b.box.x},${b.box.y},${b.box.w},${b.box.h}`}
+            data-annotator={b.annotator}
+            data-created={b.created}
+          >
             <button type="button" className="t-linkish" onClick={() => attempt(() => selectBox(store, b.id))} aria-pressed={b.id === state.selection.boxId}>
               {b.id}
             </button>

@@ -149,6 +149,8 @@ export function StudyCanvas(p: StudyCanvasProps) {
       tabIndex={0}
       role="img"
       aria-label={p.label}
+      // canvas = image * scale + offset (draw/viewport.ts), for tests and scripts that point at image pixels.
+      data-viewport={`${viewport.scale},${viewport.offsetX},${viewport.offsetY}`}
       style={{ cursor }}
       onContextMenu={(e) => e.preventDefault()}
     >
