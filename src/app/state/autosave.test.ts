@@ -1,6 +1,6 @@
 import 'fake-indexeddb/auto';
 import { afterEach, describe, expect, it } from 'vitest';
-import { addBox, loadSet, moveBox, setImageSize, setLungTemplate } from './commands';
+import { addBox, loadSet, moveBox, setAggregator, setHitRule, setImageSize, setLungTemplate, setOverlay, setWindow } from './commands';
 import { createAutosave, type Autosave } from './autosave';
 import { exportAnnotations } from './annotation-io';
 import { createAppStore } from './store';
@@ -81,7 +81,7 @@ describe('createAutosave', () => {
     const db = `t-${++dbCount}`;
     const a = makeTestStore();
     const saveA = autosaveFor(a, db);
-    const req = indexedDB.open(db, 1);
+    const req = indexedDB.open(db);
     await new Promise((r) => (req.onsuccess = r));
     const tx = req.result.transaction('annotations', 'readwrite');
     tx.objectStore('annotations').put({ set: 'test-set', text: '{"schema":"tessera.annotations/99","set":"test-set","boxes":[]}', saved: 'T' });
@@ -90,5 +90,88 @@ describe('createAutosave', () => {
     await expect(saveA.restore()).rejects.toThrow(/version 99/);
     expect(a.get().notices.at(-1)?.text).toMatch(/kept in storage as "test-set \(unreadable, saved T\)"/);
     expect(await saveA.readSaved('test-set (unreadable, saved T)')).toContain('/99');
+  });
+
+  it('the hit rule and the aggregator are saved after a change and restoreView() brings them back on a new store', async () => {
+    const db = `t-${++dbCount}`;
+    const a = makeTestStore();
+    const saveA = autosaveFor(a, db, 5);
+    setAggregator(a, { kind: 'softmax', temperature: 0.2 });
+    setHitRule(a, 'overlap');
+    setOverlay(a, 'features');
+    setWindow(a, { centre: 100, width: 50 });
+    await new Promise((r) => setTimeout(r, 60));
+    await saveA.flush();
+    const text = await saveA.readSavedView();
+    expect(JSON.parse(text ?? '{}')).toMatchObject({ schema: 'tessera.view/1', hitRule: 'overlap', aggregator: { kind: 'softmax', temperature: 0.2 }, overlay: 'features' });
+    // The display window belongs to one image and is not kept.
+    expect(text).not.toContain('window');
+
+    const b = makeTestStore();
+    const saveB = autosaveFor(b, db);
+    expect(b.get().view.hitRule).toBe('centre');
+    const applied = await saveB.restoreView();
+    expect(applied).toMatchObject({ hitRule: 'overlap', overlay: 'features' });
+    expect(b.get().view).toMatchObject({ hitRule: 'overlap', aggregator: { kind: 'softmax', temperature: 0.2 }, overlay: 'features', annotator: 'tester' });
+    expect(b.get().view.window).toBeUndefined();
+    expect(b.get().notices).toEqual([]);
+  });
+
+  it('restoreView() with nothing saved, or after the view already changed, leaves the view as it is', async () => {
+    const db = `t-${++dbCount}`;
+    const a = makeTestStore();
+    const saveA = autosaveFor(a, db);
+    expect(await saveA.restoreView()).toBeUndefined();
+    setHitRule(a, 'upsampled');
+    await saveA.flush();
+
+    const b = makeTestStore();
+    const saveB = autosaveFor(b, db);
+    setHitRule(b, 'overlap');
+    expect(await saveB.restoreView()).toBeUndefined();
+    expect(b.get().view.hitRule).toBe('overlap');
+  });
+
+  it('restoreView() applies the fields its commands accept and names the refused ones in a warning', async () => {
+    const db = `t-${++dbCount}`;
+    const a = makeTestStore();
+    const saveA = autosaveFor(a, db);
+    await saveA.flush();
+    const req = indexedDB.open(db);
+    await new Promise((r) => (req.onsuccess = r));
+    const tx = req.result.transaction('view', 'readwrite');
+    const text = JSON.stringify({ schema: 'tessera.view/1', hitRule: 'middle', aggregator: { kind: 'topk', k: 3 }, opacity: 2, showGrid: 'yes' });
+    tx.objectStore('view').put({ key: 'settings', text, saved: 'T' });
+    await new Promise((r) => (tx.oncomplete = r));
+    req.result.close();
+
+    const b = makeTestStore();
+    const applied = await autosaveFor(b, db).restoreView();
+    expect(applied).toEqual({ aggregator: { kind: 'topk', k: 3 } });
+    expect(b.get().view).toMatchObject({ hitRule: 'centre', aggregator: { kind: 'topk', k: 3 }, opacity: 0.5, showGrid: true });
+    const notice = b.get().notices.at(-1);
+    expect(notice?.level).toBe('warning');
+    expect(notice?.items).toEqual([
+      expect.stringMatching(/^hitRule: 'rule' must be one of/),
+      expect.stringMatching(/^opacity: 'opacity' must be a number in \[0, 1\]; got 2/),
+      expect.stringMatching(/^showGrid: 'showGrid' must be true or false; got "yes"/),
+    ]);
+  });
+
+  it('restoreView() of text that is not a view record warns and changes nothing', async () => {
+    const db = `t-${++dbCount}`;
+    const a = makeTestStore();
+    await autosaveFor(a, db).flush();
+    const req = indexedDB.open(db);
+    await new Promise((r) => (req.onsuccess = r));
+    const tx = req.result.transaction('view', 'readwrite');
+    tx.objectStore('view').put({ key: 'settings', text: '{"schema":"tessera.view/9","hitRule":"overlap"}', saved: 'T' });
+    await new Promise((r) => (tx.oncomplete = r));
+    req.result.close();
+    const b = makeTestStore();
+    const before = b.get().view;
+    expect(await autosaveFor(b, db).restoreView()).toEqual({});
+    expect(b.get().view).toBe(before);
+    expect(b.get().notices.at(-1)?.items[0]).toMatch(/schema "tessera.view\/1"/);
   });
 });

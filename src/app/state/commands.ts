@@ -18,7 +18,7 @@ export {
 } from './box-commands';
 export { acceptProposal, proposalsFor } from './proposals';
 export { hoverCell, selectBox, selectSentence, selectStudy, stepSentence, stepStudy } from './selection-commands';
-export { setAggregator, setAnnotator, setOpacity, setShowGrid, setShowLinks, setTopK, setWindow } from './view-commands';
+export { setAggregator, setAnnotator, setHitRule, setOpacity, setOverlay, setShowGrid, setShowLinks, setTopK, setWindow } from './view-commands';
 export { addNotice, dismissNotice, loadSet, setImageSize, toStudyEntry } from './study-commands';
 
 export function undo(store: AppStore): void {

@@ -1,4 +1,4 @@
-import type { Aggregator, ImageRect, LungZone, Size } from '../../core/types';
+import type { Aggregator, HitRule, ImageRect, LungZone, Size } from '../../core/types';
 import type { LungTemplate, ReferenceBox, SentenceKey, StudyRecord } from '../../dataset/types';
 import type { StaleBox } from '../../dataset/annotations';
 import type { ParsedReport } from '../../report/types';
@@ -29,9 +29,16 @@ export interface WindowSetting {
   readonly width: number;
 }
 
+/** What the study canvas draws over the cells: the selected sentence's similarity map, or the region features. */
+export type CellOverlay = 'map' | 'features';
+
 export interface ViewSettings {
   readonly aggregator: Aggregator;
-  readonly opacity: number; // of the map overlay, [0, 1]
+  /** How a sentence's best cell is judged against its boxes (tables, tallies, the map caption). */
+  readonly hitRule: HitRule;
+  /** What the canvas draws over the cells; both use `opacity`. */
+  readonly overlay: CellOverlay;
+  readonly opacity: number; // of the cell overlay (map or features), [0, 1]
   readonly showGrid: boolean;
   readonly showLinks: boolean;
   readonly topK: number; // outlines drawn for the k best cells
@@ -95,6 +102,8 @@ export interface AppState {
 
 export const DEFAULT_VIEW: ViewSettings = {
   aggregator: { kind: 'max' },
+  hitRule: 'centre',
+  overlay: 'map',
   opacity: 0.5,
   showGrid: true,
   showLinks: true,

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { setAggregator, setAnnotator, setOpacity, setShowGrid, setTopK, setWindow } from './commands';
+import { DEFAULT_VIEW } from './records';
+import { setAggregator, setAnnotator, setHitRule, setOpacity, setOverlay, setShowGrid, setTopK, setWindow } from './commands';
 import { makeTestStore } from './test-support';
 
 describe('view commands', () => {
@@ -35,5 +36,28 @@ describe('view commands', () => {
     expect(store.get().view).toMatchObject({ topK: 3, showGrid: false, annotator: 'ana' });
     expect(store.get().history.past).toEqual([]);
     expect(() => setTopK(store, 0)).toThrow(/'k' must be an integer >= 1; got 0/);
+  });
+
+  it('setHitRule(store, r) keeps the rule in the view beside the aggregator and refuses unknown names', () => {
+    const store = makeTestStore();
+    expect(store.get().view.hitRule).toBe(DEFAULT_VIEW.hitRule);
+    expect(DEFAULT_VIEW.hitRule).toBe('centre');
+    setHitRule(store, 'upsampled');
+    expect(store.get().view).toMatchObject({ hitRule: 'upsampled', aggregator: { kind: 'max' } });
+    const before = store.get();
+    setHitRule(store, 'upsampled');
+    expect(store.get()).toBe(before);
+    expect(() => setHitRule(store, 'center' as never)).toThrow(/'rule' must be one of centre, overlap, upsampled; got "center"/);
+    expect(store.get().view.hitRule).toBe('upsampled');
+    expect(store.get().history.past).toEqual([]);
+  });
+
+  it('setOverlay(store, o) switches between the similarity map and the region features', () => {
+    const store = makeTestStore();
+    expect(store.get().view.overlay).toBe('map');
+    setOverlay(store, 'features');
+    expect(store.get().view.overlay).toBe('features');
+    expect(() => setOverlay(store, 'pca' as never)).toThrow(/'overlay' must be one of map, features; got "pca"/);
+    expect(store.get().view.overlay).toBe('features');
   });
 });

@@ -1,6 +1,7 @@
+import { HIT_RULE_ORDER } from '../../batch/export-format';
 import { validateAggregator } from '../../core/pool-regions';
-import type { Aggregator } from '../../core/types';
-import type { ViewSettings, WindowSetting } from './records';
+import type { Aggregator, HitRule } from '../../core/types';
+import type { CellOverlay, ViewSettings, WindowSetting } from './records';
 import type { AppStore } from './store';
 
 function setView<K extends keyof ViewSettings>(store: AppStore, key: K, value: ViewSettings[K]): void {
@@ -11,6 +12,20 @@ function setView<K extends keyof ViewSettings>(store: AppStore, key: K, value: V
 export function setAggregator(store: AppStore, aggregator: Aggregator): void {
   validateAggregator(aggregator);
   setView(store, 'aggregator', aggregator);
+}
+
+/** Sets the hit rule of the tables, tallies and map caption; RangeError for a name not in HIT_RULE_ORDER. */
+export function setHitRule(store: AppStore, rule: HitRule): void {
+  if (!HIT_RULE_ORDER.includes(rule)) throw new RangeError(`'rule' must be one of ${HIT_RULE_ORDER.join(', ')}; got ${JSON.stringify(rule)}`);
+  setView(store, 'hitRule', rule);
+}
+
+const OVERLAYS: readonly CellOverlay[] = ['map', 'features'];
+
+/** Chooses what the canvas draws over the cells: 'map' (the selected sentence's similarity) or 'features'. */
+export function setOverlay(store: AppStore, overlay: CellOverlay): void {
+  if (!OVERLAYS.includes(overlay)) throw new RangeError(`'overlay' must be one of ${OVERLAYS.join(', ')}; got ${JSON.stringify(overlay)}`);
+  setView(store, 'overlay', overlay);
 }
 
 export function setOpacity(store: AppStore, opacity: number): void {

@@ -1,3 +1,4 @@
+import { createContext, useContext } from 'react';
 import type { BatchStatus } from './use-batch-scoring';
 
 export interface BatchPanelProps {
@@ -9,14 +10,44 @@ export interface BatchPanelProps {
   readonly onCancel: () => void;
 }
 
-/** Scores every study of the open set with the open model; progress bar and cancel. */
+/** The models a run may score and which are ticked; given by the Workbench, which holds the session. */
+export interface BatchModelPicker {
+  readonly choices: readonly { readonly key: string; readonly label: string; readonly ticked: boolean }[];
+  readonly onToggle: (key: string) => void;
+}
+
+export const BatchModelPickerContext = createContext<BatchModelPicker | undefined>(undefined);
+
+function ModelPicker({ picker, disabled }: { readonly picker: BatchModelPicker; readonly disabled: boolean }) {
+  const ticked = picker.choices.filter((c) => c.ticked).length;
+  return (
+    <fieldset className="t-batch__models" disabled={disabled}>
+      <legend>Models to score</legend>
+      {picker.choices.map((c) => (
+        <label key={c.key} className="t-batch__model" style={{ marginRight: '1.25em' }}>
+          <input type="checkbox" checked={c.ticked} onChange={() => picker.onToggle(c.key)} /> {c.label}
+        </label>
+      ))}
+      <p className="t-hint">
+        {ticked >= 2
+          ? 'Two or more models: Results adds their paired comparisons (difference, bootstrap interval, McNemar), as tessera score --model A --model B does.'
+          : 'Tick two or more models to compare them pairwise on the same sentences.'}
+      </p>
+    </fieldset>
+  );
+}
+
+/** Scores every study of the open set with the ticked models; progress bar and cancel. */
 export function BatchPanel({ status, blocked, description, onStart, onCancel }: BatchPanelProps) {
-  const running = status.kind === 'running';
+  const picker = useContext(BatchModelPickerContext);
+  const running = status.kind === 'running' || status.kind === 'opening';
+  const noneTicked = picker !== undefined && !picker.choices.some((c) => c.ticked);
   return (
     <div className="t-batch">
       <p>{description}</p>
+      {picker && picker.choices.length > 0 && <ModelPicker picker={picker} disabled={running} />}
       <div className="t-batch__actions">
-        <button type="button" className="t-button t-button--primary" disabled={running || blocked !== undefined} onClick={onStart}>
+        <button type="button" className="t-button t-button--primary" disabled={running || blocked !== undefined || noneTicked} onClick={onStart}>
           Score the set
         </button>
         <button type="button" className="t-button" disabled={!running} onClick={onCancel}>
@@ -24,6 +55,12 @@ export function BatchPanel({ status, blocked, description, onStart, onCancel }: 
         </button>
       </div>
       {blocked && <p className="t-status">{blocked}</p>}
+      {!blocked && noneTicked && <p className="t-status">Tick at least one model to score.</p>}
+      {status.kind === 'opening' && (
+        <p className="t-status" role="status">
+          Opening {status.models.join(', ')}…
+        </p>
+      )}
       {(status.kind === 'running' || status.kind === 'cancelled') && (
         <div className="t-batch__progress">
           <label htmlFor="t-batch-progress">

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import type { GridShape } from '../../core/types';
-import { componentsToRgb, principalComponents } from '../../core/principal-components';
+import { featureColourHex, regionFeatureColours } from '../draw';
 
 export interface RegionFeaturesViewProps {
   /** L2-normalised cell embeddings, nCells x dim, row-major cells. */
@@ -15,17 +15,16 @@ const SIZE = 176;
 
 /**
  * The study's region embeddings reduced to their first three principal components
- * (src/core principalComponents), shown as red, green and blue over the grid (componentsToRgb):
- * cells of similar colour have similar embeddings.
+ * (regionFeatureColours: src/core principalComponents and componentsToRgb), shown as red, green
+ * and blue over the grid: cells of similar colour have similar embeddings. The study toolbar's
+ * "Region features" overlay draws the same colours over the image.
  */
 export function RegionFeaturesView({ cells, dim, grid, highlightedCell, onHighlightCell }: RegionFeaturesViewProps) {
   const result = useMemo(() => {
     if (!cells || !grid) return undefined;
-    const n = grid.h * grid.w;
     try {
-      const k = Math.min(3, n, dim);
-      const pcs = principalComponents(cells, n, dim, k);
-      return { rgb: componentsToRgb(pcs.scores, n, k), ratio: pcs.explainedVarianceRatio };
+      const { rgb, varianceShare } = regionFeatureColours(cells, grid.h * grid.w, dim);
+      return { rgb, ratio: varianceShare };
     } catch (err) {
       return { error: (err as Error).message };
     }
@@ -37,20 +36,17 @@ export function RegionFeaturesView({ cells, dim, grid, highlightedCell, onHighli
   return (
     <div className="t-features">
       <svg width={SIZE} height={SIZE} role="img" aria-label="Region features: first three principal components as colours over the grid">
-        {Array.from({ length: grid.h * grid.w }, (_, i) => {
-          const [r, g, b] = [result.rgb[3 * i], result.rgb[3 * i + 1], result.rgb[3 * i + 2]];
-          return (
-            <rect
-              key={i}
-              x={(i % grid.w) * cw}
-              y={Math.floor(i / grid.w) * ch}
-              width={cw}
-              height={ch}
-              fill={`rgb(${r},${g},${b})`}
-              onMouseEnter={() => onHighlightCell(i)}
-            />
-          );
-        })}
+        {Array.from({ length: grid.h * grid.w }, (_, i) => (
+          <rect
+            key={i}
+            x={(i % grid.w) * cw}
+            y={Math.floor(i / grid.w) * ch}
+            width={cw}
+            height={ch}
+            fill={featureColourHex(result.rgb, i)}
+            onMouseEnter={() => onHighlightCell(i)}
+          />
+        ))}
         {highlightedCell !== undefined && highlightedCell < grid.h * grid.w && (
           <rect
             x={(highlightedCell % grid.w) * cw}

@@ -1,11 +1,11 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { createContext, useContext, useEffect, useMemo, useRef, useState } from 'react';
 import { Image as KonvaImage, Layer, Stage } from 'react-konva';
 import type Konva from 'konva';
 import { pointInRect } from '../../core/box-geometry';
 import type { DecodedImage } from '../../dataset/types';
 import type { AppState, AppStore } from '../state';
 import { hoverCell } from '../state';
-import { canvasToImage, drawStudyScene, type CanvasPoint, type SentenceMap } from '../draw';
+import { canvasToImage, drawStudyScene, type CanvasPoint, type RegionFeatureMap, type SentenceMap } from '../draw';
 import { boxIdle, createToolRunner, lungAwaiting, type ToolRunner, type ToolState } from '../tools';
 import { paintGreyImage } from './grey-image';
 import { ShapeNodes } from './ShapeNodes';
@@ -27,6 +27,14 @@ export interface StudyCanvasProps {
   readonly onProblem: (m: string) => void;
 }
 
+/**
+ * The selected study's region features for the canvas's 'features' overlay (view.overlay), given
+ * by the Workbench, which holds the study's similarities; undefined until the study is encoded.
+ */
+export const RegionFeaturesContext = createContext<RegionFeatureMap | undefined>(undefined);
+
+const KEY_AT: CanvasPoint = { canvasX: 8, canvasY: 8 };
+
 function useElementSize(ref: React.RefObject<HTMLDivElement | null>) {
   const [size, setSize] = useState({ width: 0, height: 0 });
   useEffect(() => {
@@ -43,8 +51,10 @@ function useElementSize(ref: React.RefObject<HTMLDivElement | null>) {
 
 /**
  * The study on a Konva stage: the grey image (display window), then the draw module's layers
- * (grid, map, outlines, links, lung template, boxes, proposals, tool preview). Wheel zooms about
- * the pointer; space + drag or the middle button pans; the pointer tools get image pixels.
+ * (grid, cell overlay, outlines, links, lung template, boxes, proposals, tool preview). The cell
+ * overlay is the map or, when view.overlay is 'features', the region features with their key;
+ * `mapVisible` shows or hides either. Wheel zooms about the pointer; space + drag or the middle
+ * button pans; the pointer tools get image pixels.
  */
 export function StudyCanvas(p: StudyCanvasProps) {
   const { state, store } = p;
@@ -133,12 +143,17 @@ export function StudyCanvas(p: StudyCanvasProps) {
     return i < 0 ? undefined : i;
   };
 
+  const features = useContext(RegionFeaturesContext);
+  const showFeatures = state.view.overlay === 'features';
   const scene = drawStudyScene({
     state,
     viewport,
     map: p.map,
+    features,
     linkAnchor: p.linkAnchorY === undefined ? undefined : { canvasX: size.width - 2, canvasY: p.linkAnchorY },
     toolPreview: toolState?.preview,
+    // The map's scale is the legend below the canvas; the features' key is drawn on it.
+    legendAt: showFeatures ? KEY_AT : undefined,
   });
   const cursor = panning.current || spaceHeld ? 'grab' : (toolState?.cursor ?? 'default');
 
@@ -148,7 +163,7 @@ export function StudyCanvas(p: StudyCanvasProps) {
       className="t-canvas"
       tabIndex={0}
       role="img"
-      aria-label={p.label}
+      aria-label={showFeatures && p.mapVisible ? `${p.label}; overlay: region features (principal components as colours)` : p.label}
       // canvas = image * scale + offset (draw/viewport.ts), for tests and scripts that point at image pixels.
       data-viewport={`${viewport.scale},${viewport.offsetX},${viewport.offsetY}`}
       style={{ cursor }}
@@ -210,6 +225,7 @@ export function StudyCanvas(p: StudyCanvasProps) {
             {p.mapVisible && <ShapeNodes shapes={scene.grounding} />}
             <ShapeNodes shapes={scene.annotations} />
             <ShapeNodes shapes={scene.tool} />
+            {p.mapVisible && <ShapeNodes shapes={scene.legend} />}
           </Layer>
         </Stage>
       )}

@@ -1,6 +1,6 @@
 import type { DecodedImage } from '../../dataset/types';
 import type { AppState, AppStore } from '../state';
-import { canRedo, canUndo, redo, setOpacity, setShowGrid, setShowLinks, setTopK, setWindow, undo } from '../state';
+import { canRedo, canUndo, redo, setOpacity, setOverlay, setShowGrid, setShowLinks, setTopK, setWindow, undo, type CellOverlay } from '../state';
 import { defaultWindow } from './grey-image';
 import type { ToolMode } from './use-keyboard-shortcuts';
 
@@ -22,6 +22,11 @@ const TOOLS: readonly { id: ToolMode; label: string; key: string }[] = [
   { id: 'lungs', label: 'Lung template', key: 'L' },
 ];
 
+const OVERLAYS: readonly { id: CellOverlay; label: string; title: string }[] = [
+  { id: 'map', label: 'Similarity map', title: "The selected sentence's cosine similarity with each cell (cividis)" },
+  { id: 'features', label: 'Region features', title: "The cells' embeddings on their first three principal components, as red, green and blue" },
+];
+
 function Toggle({ label, on, onChange, keyHint }: { label: string; on: boolean; onChange: (v: boolean) => void; keyHint: string }) {
   return (
     <button type="button" className="t-button" aria-pressed={on} onClick={() => onChange(!on)} title={`${label} (${keyHint})`}>
@@ -30,7 +35,7 @@ function Toggle({ label, on, onChange, keyHint }: { label: string; on: boolean; 
   );
 }
 
-/** Tools, layers, map opacity, top-k, display window, zoom and undo for the study canvas. */
+/** Tools, layers, the cell overlay (map or region features) and its opacity, top-k, display window, zoom and undo for the study canvas. */
 export function StudyToolbar(p: StudyToolbarProps) {
   const { view } = p.state;
   const win = view.window ?? (p.image ? defaultWindow(p.image) : undefined);
@@ -51,8 +56,15 @@ export function StudyToolbar(p: StudyToolbarProps) {
         <Toggle label="Grid" on={view.showGrid} onChange={(v) => setShowGrid(p.store, v)} keyHint="G" />
         <Toggle label="Links" on={view.showLinks} onChange={(v) => setShowLinks(p.store, v)} keyHint="K" />
       </span>
+      <span className="t-toolbar__group" role="group" aria-label="Cell overlay">
+        {OVERLAYS.map((o) => (
+          <button key={o.id} type="button" className="t-button" aria-pressed={view.overlay === o.id} onClick={() => setOverlay(p.store, o.id)} title={o.title}>
+            {o.label}
+          </button>
+        ))}
+      </span>
       <label className="t-toolbar__field">
-        Map opacity
+        Overlay opacity
         <input type="range" min={0} max={1} step={0.05} value={view.opacity} onChange={(e) => setOpacity(p.store, Number(e.target.value))} />
       </label>
       <label className="t-toolbar__field">
