@@ -154,7 +154,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'app', environment: 'jsdom', include: ['src/app/**/*.test.{ts,tsx}'] },
+        test: { name: 'app', environment: 'jsdom', include: ['src/app/**/*.test.{ts,tsx}'], testTimeout: 30_000 },
       },
       {
         extends: true,

@@ -38,7 +38,7 @@ export function boxShapes(boxes: readonly ReferenceBox[], v: Viewport, { selecte
 export function proposalShapes(proposals: readonly Proposal[], v: Viewport): Shape[] {
   return proposals.flatMap((p): Shape[] => [
     { kind: 'rect', id: `proposal-${p.zone}`, ...rectToCanvas(v, p.box), stroke: OVERLAY_COLOURS.proposal, strokeWidth: 1.5, dash: [6, 4] },
-    label(`proposal-label-${p.zone}`, v, p.box, `${p.zone} (proposed: Enter accepts)`, OVERLAY_COLOURS.proposal),
+    label(`proposal-label-${p.zone}`, v, p.box, `${p.zone}?`, OVERLAY_COLOURS.proposal),
   ]);
 }
 

@@ -84,6 +84,8 @@ describe('annotation import and export', () => {
     expect(report.added).toEqual([]);
     expect(mine.get().boxes).toEqual(before);
     expect(report.notice.level).toBe('warning');
+    // The headline itself says why nothing came in, not only the folded list.
+    expect(report.notice.text).toMatch(/^Nothing usable in other\.json: .*other-set/);
     expect(report.notice.items.join('\n')).toMatch(/set "other-set", not "test-set"/);
     expect(report.notice.items.filter((i) => /study "study-z" is not in the set/.test(i))).toHaveLength(2);
     expect(report.notice.items.some((i) => i.includes('(box-1)')) && report.notice.items.some((i) => i.includes('(box-2)'))).toBe(true);

@@ -155,7 +155,9 @@ export function importAnnotations(store: AppStore, text: string, file: string, {
     ...renamed.map((r) => `${file} (${r.from}): the id is used by another box here; imported as ${r.to}`),
     ...lungsKept.map((s) => `${file} (lungs of ${s}): the lung template already marked here is kept; the file's is not imported`),
   ];
-  const summary = `Imported ${added.length} box${added.length === 1 ? '' : 'es'} and ${lungsAdded.length} lung template${lungsAdded.length === 1 ? '' : 's'} from ${file}${unchanged.length ? `; ${unchanged.length} already here` : ''}${newStale.length ? `; ${newStale.length} stale, shown apart` : ''}.`;
+  // Nothing usable but problems (another set's file, unknown studies): the headline says why.
+  const headline = added.length === 0 && lungsAdded.length === 0 && unchanged.length === 0 && problems.length > 0 ? `Nothing usable in ${file}: ${problems[0].message}. ` : '';
+  const summary = `${headline}Imported ${added.length} box${added.length === 1 ? '' : 'es'} and ${lungsAdded.length} lung template${lungsAdded.length === 1 ? '' : 's'} from ${file}${unchanged.length ? `; ${unchanged.length} already here` : ''}${newStale.length ? `; ${newStale.length} stale, shown apart` : ''}.`;
   const notice = noticeOf(items.length ? 'warning' : 'info', summary, items);
   store.update((s) => {
     const next = recordChange(s, 'importAnnotations', { boxes: boxPairs, lungs: lungPairs });

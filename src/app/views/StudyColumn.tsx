@@ -86,7 +86,7 @@ export function StudyColumn(p: StudyColumnProps) {
         {prompt && <div className="t-canvas-prompt">{prompt}</div>}
       </div>
       <div className="t-study__foot">
-        {p.mapVisible && <MapLegend domain={domain} />}
+        {p.mapVisible && p.state.view.overlay === 'map' && <MapLegend domain={domain} />}
         {sel ? (
           <p className="t-bestcell" data-best-cell={`${sel.grounding.bestCell.row},${sel.grounding.bestCell.col}`} data-study={study?.id}>
             Sentence {sel.sentence.index + 1}: best cell row {sel.grounding.bestCell.row + 1}, column {sel.grounding.bestCell.col + 1}

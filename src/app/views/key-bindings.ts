@@ -41,7 +41,7 @@ export const KEY_BINDINGS: readonly KeyBinding[] = [
   { keys: ['Ctrl+Shift+Z', 'Ctrl+Y'], action: 'Redo', group: 'Reference boxes' },
   { keys: ['G'], action: 'Show or hide the region grid', group: 'View' },
   { keys: ['K'], action: 'Show or hide the links to the best cells', group: 'View' },
-  { keys: ['M'], action: 'Show or hide the similarity map', group: 'View' },
+  { keys: ['M'], action: 'Show or hide the cell overlay (similarity map or region features)', group: 'View' },
   { keys: ['+', '-'], action: 'Zoom in / out', group: 'View' },
   { keys: ['0'], action: 'Fit the image to the view', group: 'View' },
   { keys: ['Wheel'], action: 'Zoom about the pointer', group: 'View' },
