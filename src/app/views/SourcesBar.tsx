@@ -27,7 +27,7 @@ function FolderButton({ label, onSource, onProblem }: { label: string; onSource:
   };
   return (
     <>
-      <button type="button" className="t-button" onClick={() => void open()}>
+      <button type="button" className="t-button" onClick={() => void open()} title={`${label} You can also drop the folder on the page.`}>
         {label}
       </button>
       <input
