@@ -17,6 +17,7 @@ This is the recipe's own quick check; `tessera score` is the tool's full, indepe
 
 import argparse
 import json
+import math
 import os
 import sys
 
@@ -110,7 +111,7 @@ def main(argv=None):
                 findings.append(finding_of[text])
     texts = [t for _, t, _ in items]
     emb = embed(texts)
-    hits, chances = [], []
+    hits, chances, gaps, other_side, offsets = [], [], [], [], []
     for k, (i, _, bs) in enumerate(items):
         sim = regions[i] @ emb[k]
         best = int(sim.argmax())
@@ -124,12 +125,25 @@ def main(argv=None):
 
         hits.append(inside(centres[best]))
         chances.append(sum(inside(c) for c in centres) / len(centres))
+        # How far a miss lands: the best cell centre's distance to the nearest box, in image pixels,
+        # and whether it is on the other half of the image from every box (a side error).
+        px, py = centres[best]
+        gaps.append(min(math.hypot(max(b['x'] - px, 0, px - b['x'] - b['w']), max(b['y'] - py, 0, py - b['y'] - b['h']))
+                        for b in bs))
+        nb = min(bs, key=lambda b: math.hypot(b['x'] + b['w'] / 2 - px, b['y'] + b['h'] / 2 - py))
+        offsets.append(((nb['x'] + nb['w'] / 2 - px) / sx, (nb['y'] + nb['h'] / 2 - py) / sy))
+        other_side.append(all((px < ow / 2) != (b['x'] + b['w'] / 2 < ow / 2) for b in bs))
 
     by_finding = {}
     for f in sorted(set(findings)):
         ks = [k for k, g in enumerate(findings) if g == f]
+        misses = [k for k in ks if not hits[k]]
         by_finding[f] = {'n': len(ks), 'pointing': round(float(np.mean([hits[k] for k in ks])), 4),
-                         'chance': round(float(np.mean([chances[k] for k in ks])), 4)}
+                         'chance': round(float(np.mean([chances[k] for k in ks])), 4),
+                         'miss_median_gap_px': round(float(np.median([gaps[k] for k in misses])), 1) if misses else None,
+                         'misses_on_other_side': sum(other_side[k] for k in misses),
+                         # box centre minus best cell centre, in model-input pixels, averaged over all sentences
+                         'mean_offset_input_px': [round(float(np.mean([offsets[k][j] for k in ks])), 2) for j in (0, 1)]}
 
     scores = score_all(emb)
     own = torch.tensor([i for i, _, _ in items])

@@ -2,7 +2,7 @@
 giving one embedding per sentence.
 
 Image encoder: [B, 1, H, W] float32 (already scaled and normalised by the caller, as the manifest
-says) -> [B, D, H/16, W/16]. Two coordinate channels (CoordConv; Liu et al. 2018, "An intriguing
+says) -> [B, D, H/s, W/s] (s = 16, or 8 for the fine layout). Two coordinate channels (CoordConv; Liu et al. 2018, "An intriguing
 failing of convolutional neural networks and the CoordConv solution") are made inside the network
 from the input's own shape, so the exported graph still takes 1 channel.
 Text encoder: ids, mask int64 [B, T] -> [B, D], the masked mean of the token states, projected.
@@ -24,7 +24,32 @@ SMALL_FIELD = [
 # One more 3x3 layer at stride 16 with dilation 3 widens the field by 2 * 3 * 16 = 96 px at the cost
 # of a single layer.
 WIDE_FIELD = SMALL_FIELD[:6] + [('conv', 128, 3, 1, 3)] + SMALL_FIELD[6:]
-LAYOUTS = {'small': SMALL_FIELD, 'wide': WIDE_FIELD}
+# A stride-8 grid (28 x 28 at 224 px) with about the same field: small boxes (a nodule a few cells
+# wide at stride 16) then hold cell centres, so the centre rule can be met at all.
+FINE_FIELD = [
+    ('conv', 24, 4, 4),
+    ('conv', 32, 3, 1),
+    ('conv', 48, 3, 2),
+    ('conv', 48, 3, 1),
+    ('conv', 64, 3, 1),
+    ('conv', 128, 3, 1),
+    ('conv', 128, 1, 1),
+]
+# Stride 8 with a 48 px field, and every downsampling step a patchify (kernel = stride, no padding),
+# so each cell's field is centred on the cell: a 3x3 stride-2 convolution with padding 1 would centre
+# it half an input step up and left of the cell. The coordinate channels tell a cell where it is, so
+# it needs little context to match "left lower zone".
+CENTRED_FIELD = [
+    ('conv', 24, 4, 4),
+    ('conv', 32, 3, 1),
+    ('conv', 48, 2, 2),
+    ('conv', 64, 3, 1),
+    ('conv', 128, 3, 1),
+    ('conv', 128, 1, 1),
+]
+# The centred stride-8 layout with one more 3x3 layer: a 64 px field, as wide as 'fine'.
+CENTRED_WIDER_FIELD = CENTRED_FIELD[:4] + [('conv', 64, 3, 1)] + CENTRED_FIELD[4:]
+LAYOUTS = {'small': SMALL_FIELD, 'wide': WIDE_FIELD, 'fine': FINE_FIELD, 'centred': CENTRED_FIELD, 'centred64': CENTRED_WIDER_FIELD}
 
 
 def receptive_field(layers):

@@ -44,7 +44,7 @@ def parse_args(argv):
     p.add_argument('--objective', choices=['local', 'global'], default='local')
     p.add_argument('--pooling', choices=['softmax', 'max'], default='softmax', help='region pooling (local objective)')
     p.add_argument('--pool-temperature', type=float, default=0.1)
-    p.add_argument('--field', choices=['small', 'wide'], default='small', help='receptive field layout')
+    p.add_argument('--field', choices=['small', 'wide', 'fine', 'centred', 'centred64'], default='small', help='receptive field layout')
     p.add_argument('--no-coords', action='store_true', help='leave out the two coordinate channels')
     p.add_argument('--size', type=int, default=224)
     p.add_argument('--dim', type=int, default=128)
@@ -100,9 +100,9 @@ def pool_regions(sim, pooling, temperature):
 def batch_loss(model, args, image, token_lists, owner, positives=None):
     """InfoNCE both ways over the study x image score matrix. owner[s] = batch row of sentence s;
     positives [S, B] bool marks each image whose report holds sentence s (for the per-sentence term)."""
-    regions = model.image(image)  # [B, D, h, w]
-    b, d = regions.shape[:2]
-    regions = F.normalize(regions.flatten(2).transpose(1, 2), dim=-1)  # [B, N, D]
+    grid = F.normalize(model.image(image), dim=1)  # [B, D, h, w], unit vectors per cell
+    b, d = grid.shape[:2]
+    regions = grid.flatten(2).transpose(1, 2)  # [B, N, D]
     width = max(len(t) for t in token_lists)
     ids = torch.zeros(len(token_lists), width, dtype=torch.long)
     mask = torch.zeros_like(ids)
@@ -123,7 +123,9 @@ def batch_loss(model, args, image, token_lists, owner, positives=None):
         score = txt_g @ img_g.t()  # [R, B]
         sent_score = None
     else:
-        sim = torch.einsum('sd,bnd->sbn', sent, regions)
+        # Cosine of every sentence with every cell of every image, as a 1x1 convolution (the same
+        # numbers as einsum('sd,bnd->sbn'), computed by the convolution kernels, which are faster on CPU).
+        sim = F.conv2d(grid, sent.view(len(token_lists), d, 1, 1)).flatten(2).transpose(0, 1)  # [S, B, N]
         sent_score = pool_regions(sim, args.pooling, args.pool_temperature)  # [S, B]
         score = member @ sent_score  # [R, B]
     logits = score / CONTRAST_TEMPERATURE

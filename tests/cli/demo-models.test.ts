@@ -32,7 +32,7 @@ beforeAll(async () => {
   const rt = await runCli(['score', '--model', 'models/demo-local', '--set', set, '--out', join(root, 'out-15'), '--no-cache', '--tolerance', '15']);
   expect(rt.code, rt.stderr).toBe(0);
   withTolerance = JSON.parse(await readFile(join(root, 'out-15', 'summary.json'), 'utf8')) as Summary;
-});
+}, 900_000); // four models' score plus one more run; slow when the two cores are shared
 
 afterAll(async () => {
   await rm(root, { recursive: true, force: true });
@@ -48,19 +48,19 @@ describe('bundled demo models on an unseen phantom set', () => {
   it('score: demo-local points far above chance; >= 80% with the pointing game tolerance of 15 px', () => {
     const g = model('demo-local').grounding;
     expect(g.n).toBeGreaterThan(50);
-    // Strict centre rule (0 px): about two thirds today; small nodule and perihilar boxes are missed.
-    expect(g.wilson95[0]).toBeGreaterThan(0.55);
+    // Strict centre rule (0 px): about three quarters here; the misses are mostly perihilar oedema
+    // and pneumothorax rims, with the best cell one cell beside the box.
+    expect(g.wilson95[0]).toBeGreaterThan(0.65);
     expect(g.rate).toBeGreaterThanOrEqual(3 * g.chance);
     const t = withTolerance.models[0].grounding;
     expect(t.rate).toBeGreaterThanOrEqual(0.8);
     expect(t.rate).toBeGreaterThanOrEqual(3 * t.chance);
   });
 
-  it('score: the untrained control grounds no better than chance, far below demo-local', () => {
-    // A random-weight CNN is no uniform random pointer: its best cell sits at a few fixed cells
-    // (image edges), so it can fall below chance; what matters is that it never rises above it.
+  it('score: the untrained control scores within its interval of chance, far below demo-local', () => {
     const g = model('untrained-control').grounding;
     expect(g.wilson95[0]).toBeLessThanOrEqual(g.chance);
+    expect(g.wilson95[1]).toBeGreaterThanOrEqual(g.chance);
     expect(g.wilson95[1]).toBeLessThan(model('demo-local').grounding.wilson95[0]);
   });
 
