@@ -25,7 +25,8 @@ export function SimilarityMatrixView(p: SimilarityMatrixViewProps) {
   const { sim, grid, sentences } = p;
   if (!sim || !grid || sim.rows === 0) return <p className="t-status">Encode the study to see its sentence × cell matrix.</p>;
   const nCells = sim.cols;
-  const cellW = Math.max(3, Math.min(14, Math.floor(900 / nCells)));
+  // About 900 px whatever the grid: 196 cells get 4 px each, 784 cells a little over 1 px (arrows pick one).
+  const cellW = Math.max(1, Math.min(14, 900 / nCells));
   const width = LABEL_W + nCells * cellW;
   const height = sim.rows * CELL_H + 14;
   const rowOf = (index: number | undefined) => sentences.findIndex((s) => s.index === index);
