@@ -32,11 +32,21 @@ class ReceptiveFieldTest(unittest.TestCase):
     def test_receptive_field_of_the_demo_layouts(self):
         self.assertEqual(nets.receptive_field(nets.SMALL_FIELD), (60, 16))
         self.assertEqual(nets.receptive_field(nets.WIDE_FIELD), (156, 16))
+        self.assertEqual(nets.receptive_field(nets.CENTRED_WIDER_FIELD), (64, 8))
 
     def test_receptive_field_matches_the_gradient_support(self):
-        for field in ('small', 'wide'):
+        for field in ('small', 'wide', 'centred64'):
             with self.subTest(field=field):
                 self.check_gradient_support(field)
+
+    def test_centred_layout_centres_each_cells_field_on_the_cell(self):
+        # The gradient support of cell (r, c) must be symmetric about the cell's centre, 8 r + 4.
+        torch.manual_seed(0)
+        enc = nets.ImageEncoder('centred64', dim=8, coords=False).eval()
+        x = torch.randn(1, 1, 224, 224, requires_grad=True)
+        enc(x)[0, :, 13, 13].sum().backward()
+        rows = torch.nonzero(x.grad[0, 0].abs().sum(1)).flatten()
+        self.assertEqual((int(rows.min()) + int(rows.max()) + 1) / 2, 13 * 8 + 4)
 
     def check_gradient_support(self, field):
         torch.manual_seed(0)
