@@ -14,3 +14,9 @@ export function memorySource(label: string, files: ReadonlyMap<string, Uint8Arra
     exists: async (p) => files.has(p),
   };
 }
+
+/** memorySource over a record of files given as bytes or text (text is stored as UTF-8). */
+export function recordSource(label: string, files: Readonly<Record<string, Uint8Array | string>>): FileSource {
+  const enc = new TextEncoder();
+  return memorySource(label, new Map(Object.entries(files).map(([p, f]) => [p, typeof f === 'string' ? enc.encode(f) : f])));
+}

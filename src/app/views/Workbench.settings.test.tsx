@@ -9,6 +9,7 @@ import { addBox, createAppStore, setHitRule, setImageSize, type AppStore } from 
 import { createAutosave, type Autosave } from '../state/autosave';
 import type { InferenceClient, OpenedModel } from '../inference/inference-client';
 import type { DemoSources } from '../sources/demo-sources';
+import { recordSource } from '../sources/memory-source.test-util';
 import { Workbench } from './Workbench';
 import { changeValue, click, renderForTest, type Rendered } from './render-for-test';
 
@@ -25,30 +26,10 @@ const REPORTS = [
   'FINDINGS:\nNodule in the left upper zone. Heart size is normal.',
 ];
 
-function source(label: string, files: Record<string, Uint8Array | string>): FileSource {
-  const get = (p: string) => {
-    const f = files[p];
-    if (f === undefined) throw new Error(`${label}/${p}: no such file`);
-    return f;
-  };
-  return {
-    label,
-    readBytes: async (p) => {
-      const f = get(p);
-      return typeof f === 'string' ? new TextEncoder().encode(f) : f;
-    },
-    readText: async (p) => {
-      const f = get(p);
-      return typeof f === 'string' ? f : new TextDecoder().decode(f);
-    },
-    exists: async (p) => p in files,
-  };
-}
-
 function setSource(): FileSource {
   const image = (seed: number) => encodePng({ width: 30, height: 30, bitDepth: 8, data: new Uint8Array(900).map((_, i) => (i * seed) % 251) });
   const studies = REPORTS.map((report, i) => ({ id: `s${i + 1}`, image: `${i}.png`, report }));
-  return source('test-set', {
+  return recordSource('test-set', {
     'set.json': JSON.stringify({ schema: 'tessera.set/1', name: 'test-set', synthetic: true, studies }),
     '0.png': image(3),
     '1.png': image(7),
@@ -81,9 +62,9 @@ function mockClient() {
 function demo(): Promise<DemoSources> {
   return Promise.resolve({
     catalogue: { models: ['model-a', 'model-b'], sets: ['test'] },
-    model: source('model-a', {}),
+    model: recordSource('model-a', {}),
     set: setSource(),
-    modelSource: (name: string) => source(name, {}),
+    modelSource: (name: string) => recordSource(name, {}),
   });
 }
 

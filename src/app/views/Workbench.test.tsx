@@ -7,6 +7,7 @@ import { createAppStore } from '../state';
 import type { InferenceClient, OpenedModel } from '../inference/inference-client';
 import type { DemoSources } from '../sources/demo-sources';
 import { createRng } from '../../core/seeded-random';
+import { recordSource } from '../sources/memory-source.test-util';
 import { Workbench } from './Workbench';
 import { changeValue, renderForTest, type Rendered } from './render-for-test';
 
@@ -17,30 +18,10 @@ const GRID = { h: 3, w: 3 };
 const DIM = 4;
 const REPORT = 'FINDINGS:\nConsolidation in the right lower zone. No pneumothorax. Small left pleural effusion.';
 
-function textSource(label: string, files: Record<string, Uint8Array | string>): FileSource {
-  const get = (p: string) => {
-    const f = files[p];
-    if (f === undefined) throw new Error(`${label}/${p}: no such file`);
-    return f;
-  };
-  return {
-    label,
-    readBytes: async (p) => {
-      const f = get(p);
-      return typeof f === 'string' ? new TextEncoder().encode(f) : f;
-    },
-    readText: async (p) => {
-      const f = get(p);
-      return typeof f === 'string' ? f : new TextDecoder().decode(f);
-    },
-    exists: async (p) => p in files,
-  };
-}
-
 function demoSet(): FileSource {
   const image = encodePng({ width: 30, height: 30, bitDepth: 8, data: new Uint8Array(900).map((_, i) => i % 251) });
   const set = { schema: 'tessera.set/1', name: 'test-set', synthetic: true, studies: [{ id: 's1', image: 'a.png', report: REPORT }] };
-  return textSource('test-set', { 'set.json': JSON.stringify(set), 'a.png': image });
+  return recordSource('test-set', { 'set.json': JSON.stringify(set), 'a.png': image });
 }
 
 /** A stand-in for the worker client: seeded embeddings, counted calls; ONNX Runtime never runs here. */
@@ -92,9 +73,9 @@ describe('Workbench', () => {
     const { client, encodeImage, encodeSentences } = mockClient();
     const demo: Promise<DemoSources> = Promise.resolve({
       catalogue: { models: ['mock'], sets: ['test'] },
-      model: textSource('mock', {}),
+      model: recordSource('mock', {}),
       set: demoSet(),
-      modelSource: () => textSource('mock', {}),
+      modelSource: () => recordSource('mock', {}),
     });
     r = renderForTest(<Workbench services={{ store: createAppStore(), client, demo, setupProblems: [] }} />);
     const c = r.container;
