@@ -9,9 +9,10 @@ import { imageToCanvas, rectToCanvas, type Viewport } from './viewport';
 
 const LABEL_SIZE = 11;
 
-function label(id: string, v: Viewport, r: ImageRect, text: string, fill: string): Shape {
-  const p = imageToCanvas(v, r);
-  return { kind: 'text', id, x: p.canvasX + 2, y: p.canvasY - LABEL_SIZE - 2, text, fontSize: LABEL_SIZE, fill };
+/** A label just above the rectangle's top-left corner, or (below) just under its bottom-left corner. */
+function label(id: string, v: Viewport, r: ImageRect, text: string, fill: string, below = false): Shape {
+  const p = imageToCanvas(v, below ? { x: r.x, y: r.y + r.h } : r);
+  return { kind: 'text', id, x: p.canvasX + 2, y: below ? p.canvasY + 2 : p.canvasY - LABEL_SIZE - 2, text, fontSize: LABEL_SIZE, fill };
 }
 
 /**
@@ -52,7 +53,7 @@ export function lungTemplateShapes(lungs: LungTemplate, v: Viewport): Shape[] {
   for (const side of ['right', 'left'] as const) {
     const r = lungs[side];
     out.push({ kind: 'rect', id: `lung-${side}`, ...rectToCanvas(v, r), stroke: OVERLAY_COLOURS.lungs, strokeWidth: 1.5, dash: [2, 3] });
-    out.push(label(`lung-label-${side}`, v, r, `patient's ${side} lung`, OVERLAY_COLOURS.lungs));
+    out.push(label(`lung-label-${side}`, v, r, `patient's ${side} lung`, OVERLAY_COLOURS.lungs, true));
     for (const third of ['middle', 'lower'] as const) {
       const z = zones[`${side}-${third}`];
       const a = imageToCanvas(v, { x: z.x, y: z.y });

@@ -82,6 +82,10 @@ describe('draw', () => {
     const shapes = lungTemplateShapes({ study: 's', ...LUNGS, annotator: '', created: '' }, { scale: 1, offsetX: 0, offsetY: 0 });
     const thirds = shapes.filter((s) => s.kind === 'line') as LineShape[];
     expect(thirds.map((l) => l.points[1])).toEqual([100, 170, 100, 170]);
+    // The side labels sit under each lung, leaving the tops to the zone proposals' labels.
+    const right = shapes.find((s) => s.id === 'lung-right') as RectShape;
+    const rightLabel = shapes.find((s) => s.id === 'lung-label-right');
+    expect(rightLabel?.kind === 'text' && rightLabel.y).toBeGreaterThanOrEqual(right.y + right.height);
     expect(toolPreviewShapes([{ kind: 'draft-box', rect: { x: 1, y: 2, w: 3, h: 4 } }], V)[0]).toMatchObject({ x: 12, y: 24, width: 6, height: 8, dash: [4, 4] });
   });
 
