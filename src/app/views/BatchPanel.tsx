@@ -1,4 +1,3 @@
-import { createContext, useContext } from 'react';
 import type { BatchStatus } from './use-batch-scoring';
 
 export interface BatchPanelProps {
@@ -8,6 +7,8 @@ export interface BatchPanelProps {
   readonly description: string;
   readonly onStart: () => void;
   readonly onCancel: () => void;
+  /** The models a run scores, as ticks; undefined: the open model only. */
+  readonly picker?: BatchModelPicker;
 }
 
 /** The models a run may score and which are ticked; given by the Workbench, which holds the session. */
@@ -15,8 +16,6 @@ export interface BatchModelPicker {
   readonly choices: readonly { readonly key: string; readonly label: string; readonly ticked: boolean }[];
   readonly onToggle: (key: string) => void;
 }
-
-export const BatchModelPickerContext = createContext<BatchModelPicker | undefined>(undefined);
 
 function ModelPicker({ picker, disabled }: { readonly picker: BatchModelPicker; readonly disabled: boolean }) {
   const ticked = picker.choices.filter((c) => c.ticked).length;
@@ -38,8 +37,7 @@ function ModelPicker({ picker, disabled }: { readonly picker: BatchModelPicker; 
 }
 
 /** Scores every study of the open set with the ticked models; progress bar and cancel. */
-export function BatchPanel({ status, blocked, description, onStart, onCancel }: BatchPanelProps) {
-  const picker = useContext(BatchModelPickerContext);
+export function BatchPanel({ status, blocked, description, onStart, onCancel, picker }: BatchPanelProps) {
   const running = status.kind === 'running' || status.kind === 'opening';
   const noneTicked = picker !== undefined && !picker.choices.some((c) => c.ticked);
   return (

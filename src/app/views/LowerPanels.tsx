@@ -3,7 +3,7 @@ import type { GridShape } from '../../core/types';
 import type { AppState } from '../state';
 import { selectedStudy } from '../state';
 import { cividisHex, normaliseToDomain, valueDomain } from '../draw/colour-scale';
-import { BatchPanel } from './BatchPanel';
+import { BatchPanel, type BatchModelPicker } from './BatchPanel';
 import { RegionFeaturesView } from './RegionFeaturesView';
 import { ResultsPanel, type ResultsPanelProps } from './ResultsPanel';
 import { SimilarityMatrixView } from './SimilarityMatrixView';
@@ -26,6 +26,8 @@ export interface LowerPanelsProps {
   readonly onStartBatch: () => void;
   readonly batch: BatchResult | undefined;
   readonly extraDownloads: ResultsPanelProps['extraDownloads'];
+  /** Which models a set run scores; undefined: the open model only. */
+  readonly batchModels?: BatchModelPicker;
 }
 
 /** The lower tabs: matrix, region features, batch scoring and results. */
@@ -76,7 +78,7 @@ export function LowerPanels(p: LowerPanelsProps) {
             id: 'batch',
             label: 'Score the set',
             render: () => (
-              <BatchPanel status={p.scoring.status} blocked={p.batchBlocked} description={p.batchDescription} onStart={p.onStartBatch} onCancel={p.scoring.cancel} />
+              <BatchPanel status={p.scoring.status} blocked={p.batchBlocked} description={p.batchDescription} onStart={p.onStartBatch} onCancel={p.scoring.cancel} picker={p.batchModels} />
             ),
           },
           { id: 'results', label: 'Results', render: () => <ResultsPanel result={p.batch} extraDownloads={p.extraDownloads} /> },

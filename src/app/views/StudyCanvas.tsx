@@ -1,4 +1,4 @@
-import { createContext, useContext, useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Image as KonvaImage, Layer, Stage } from 'react-konva';
 import type Konva from 'konva';
 import { pointInRect } from '../../core/box-geometry';
@@ -18,6 +18,8 @@ export interface StudyCanvasProps {
   readonly image: DecodedImage | undefined;
   readonly map: SentenceMap | undefined;
   readonly mapVisible: boolean;
+  /** The study's region features for the 'features' overlay (view.overlay); undefined until the study is encoded. */
+  readonly features?: RegionFeatureMap;
   readonly tool: ToolMode;
   readonly zoomRequest: { how: 'in' | 'out' | 'fit'; n: number };
   /** Where links to the best cells start, canvas pixels. */
@@ -27,11 +29,6 @@ export interface StudyCanvasProps {
   readonly onProblem: (m: string) => void;
 }
 
-/**
- * The selected study's region features for the canvas's 'features' overlay (view.overlay), given
- * by the Workbench, which holds the study's similarities; undefined until the study is encoded.
- */
-export const RegionFeaturesContext = createContext<RegionFeatureMap | undefined>(undefined);
 
 const KEY_AT: CanvasPoint = { canvasX: 8, canvasY: 8 };
 
@@ -143,7 +140,7 @@ export function StudyCanvas(p: StudyCanvasProps) {
     return i < 0 ? undefined : i;
   };
 
-  const features = useContext(RegionFeaturesContext);
+  const features = p.features;
   const showFeatures = state.view.overlay === 'features';
   const scene = drawStudyScene({
     state,

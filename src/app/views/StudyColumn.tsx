@@ -2,7 +2,7 @@ import { useCallback, useLayoutEffect, useMemo, useRef, useState } from 'react';
 import type { GridShape, HitRule } from '../../core/types';
 import type { AppState, AppStore } from '../state';
 import { selectedStudy } from '../state';
-import { valueDomain, type SentenceMap } from '../draw';
+import { valueDomain, type RegionFeatureMap, type SentenceMap } from '../draw';
 import { MapLegend } from './MapLegend';
 import { StudyCanvas } from './StudyCanvas';
 import { StudyToolbar } from './StudyToolbar';
@@ -18,6 +18,7 @@ export interface StudyColumnProps {
   readonly tool: ToolMode;
   readonly onTool: (t: ToolMode) => void;
   readonly mapVisible: boolean;
+  readonly features?: RegionFeatureMap;
   readonly onToggleMap: () => void;
   readonly zoomRequest: { how: 'in' | 'out' | 'fit'; n: number };
   readonly onZoom: (how: 'in' | 'out' | 'fit') => void;
@@ -74,6 +75,7 @@ export function StudyColumn(p: StudyColumnProps) {
           image={p.encoding.image}
           map={map}
           mapVisible={p.mapVisible}
+          features={p.features}
           tool={p.tool}
           zoomRequest={p.zoomRequest}
           linkAnchorY={anchorY}

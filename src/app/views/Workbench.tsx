@@ -3,7 +3,7 @@ import type { AppServices } from '../inference/app-services';
 import type { Autosave } from '../state/autosave';
 import { dismissNotice, exportAnnotations, exportCocoJson, hoverCell, selectSentence, selectStudy, setAggregator, setHitRule, setImageSize } from '../state';
 import { regionFeatureColours, type RegionFeatureMap } from '../draw';
-import { BatchModelPickerContext, type BatchModelPicker } from './BatchPanel';
+import type { BatchModelPicker } from './BatchPanel';
 import { CautionBanner } from './CautionBanner';
 import { HelpOverlay } from './HelpOverlay';
 import { MessagesBar } from './MessagesBar';
@@ -11,7 +11,6 @@ import { SourcesBar } from './SourcesBar';
 import { StudyNavigator } from './StudyNavigator';
 import { ReportColumn } from './ReportColumn';
 import { StudyColumn } from './StudyColumn';
-import { RegionFeaturesContext } from './StudyCanvas';
 import { LowerPanels } from './LowerPanels';
 import { useAppState } from './use-app-state';
 import { useExplorerSession } from './use-explorer-session';
@@ -129,8 +128,7 @@ export function Workbench({ services }: WorkbenchProps) {
             <StudyNavigator studies={vm.navigator} selectedId={state.selection.studyId} onSelect={(id) => attempt(() => selectStudy(store, id))} />
           </div>
         </section>
-        <RegionFeaturesContext.Provider value={features && !('error' in features) ? features : undefined}>
-          <StudyColumn
+        <StudyColumn
             state={state}
             store={store}
             encoding={encoding}
@@ -145,8 +143,8 @@ export function Workbench({ services }: WorkbenchProps) {
             grid={session.model?.grid}
             hitRule={hitRule}
             onProblem={addProblem}
+            features={features && !('error' in features) ? features : undefined}
           />
-        </RegionFeaturesContext.Provider>
         <ReportColumn
           state={state}
           store={store}
@@ -160,7 +158,6 @@ export function Workbench({ services }: WorkbenchProps) {
           onProblem={addProblem}
         />
       </main>
-      <BatchModelPickerContext.Provider value={picker}>
         <LowerPanels
           active={lowerTab}
           onActivate={setLowerTab}
@@ -181,8 +178,8 @@ export function Workbench({ services }: WorkbenchProps) {
             { label: 'Download annotation file', file: 'annotations.json', make: () => exportAnnotations(store.get()) },
             { label: 'Download COCO JSON', file: 'boxes-coco.json', make: () => exportCocoJson(store.get()) },
           ]}
+          batchModels={picker}
         />
-      </BatchModelPickerContext.Provider>
       <HelpOverlay open={helpOpen} onClose={() => setHelpOpen(false)} />
     </div>
   );
