@@ -1,8 +1,8 @@
-// Test doubles for the inference client tests: a fake engine with the tiny fixture's shapes, and a
+// Test doubles for the inference and view tests: a stand-in client, a fake engine with the tiny fixture's shapes, and a
 // worker pair that runs the real worker handler in the same thread. Not used by the app.
 import type { InferenceEngine, InferenceSession, NamedTensor, SentenceTokenizer } from '../../model/types';
 import type { WorkerRequest, WorkerResponse } from './protocol';
-import type { WorkerLike } from './inference-client';
+import type { InferenceClient, WorkerLike } from './inference-client';
 import { createWorkerHandler } from './worker-handler';
 
 export const D = 4;
@@ -91,4 +91,15 @@ export function inThreadWorker(engine: InferenceEngine = fakeEngine()): WorkerLi
     addEventListener: (_type, l) => listeners.push(l),
     terminate: () => undefined,
   };
+}
+
+/** An InferenceClient stand-in for view tests: the given encode and open functions, the rest inert. */
+export function fakeClient(parts: Pick<InferenceClient, 'openModel' | 'encodeImage' | 'encodeSentences'>): InferenceClient {
+  return {
+    ...parts,
+    imageStore: { get: async () => undefined, set: async () => {} },
+    runtimeInfo: async () => ({ crossOriginIsolated: false, threads: 1, wasmPaths: '' }),
+    releaseModel: async () => {},
+    terminate: () => {},
+  } as unknown as InferenceClient;
 }

@@ -10,6 +10,7 @@ import { createAutosave, type Autosave } from '../state/autosave';
 import type { InferenceClient, OpenedModel } from '../inference/inference-client';
 import type { DemoSources } from '../sources/demo-sources';
 import { recordSource } from '../sources/memory-source.test-util';
+import { fakeClient } from '../inference/test-doubles';
 import { Workbench } from './Workbench';
 import { changeValue, click, renderForTest, type Rendered } from './render-for-test';
 
@@ -47,15 +48,7 @@ function mockClient() {
   const openModel = vi.fn(async (s: FileSource) => modelFor(s.label));
   const encodeImage = vi.fn(async () => Float32Array.from({ length: GRID.h * GRID.w * DIM }, () => rng.next() - 0.5));
   const encodeSentences = vi.fn(async (_h: string, texts: readonly string[]) => Float32Array.from({ length: texts.length * DIM }, () => rng.next() - 0.5));
-  const client = {
-    openModel,
-    encodeImage,
-    encodeSentences,
-    imageStore: { get: async () => undefined, set: async () => {} },
-    runtimeInfo: async () => ({ crossOriginIsolated: false, threads: 1, wasmPaths: '' }),
-    releaseModel: async () => {},
-    terminate: () => {},
-  } as unknown as InferenceClient;
+  const client = fakeClient({ openModel, encodeImage, encodeSentences });
   return { client, openModel, encodeImage };
 }
 

@@ -4,10 +4,11 @@ import { encodePng } from '../../dataset/png-codec';
 import type { FileSource } from '../../dataset/types';
 import type { ModelManifest } from '../../model/types';
 import { createAppStore } from '../state';
-import type { InferenceClient, OpenedModel } from '../inference/inference-client';
+import type { OpenedModel } from '../inference/inference-client';
 import type { DemoSources } from '../sources/demo-sources';
 import { createRng } from '../../core/seeded-random';
 import { recordSource } from '../sources/memory-source.test-util';
+import { fakeClient } from '../inference/test-doubles';
 import { Workbench } from './Workbench';
 import { changeValue, renderForTest, type Rendered } from './render-for-test';
 
@@ -34,15 +35,7 @@ function mockClient() {
   } satisfies OpenedModel;
   const encodeImage = vi.fn(async () => Float32Array.from({ length: GRID.h * GRID.w * DIM }, () => rng.next() - 0.5));
   const encodeSentences = vi.fn(async (_h: string, texts: readonly string[]) => Float32Array.from({ length: texts.length * DIM }, () => rng.next() - 0.5));
-  const client = {
-    openModel: vi.fn(async () => model),
-    encodeImage,
-    encodeSentences,
-    imageStore: { get: async () => undefined, set: async () => {} },
-    runtimeInfo: async () => ({ crossOriginIsolated: false, threads: 1, wasmPaths: '' }),
-    releaseModel: async () => {},
-    terminate: () => {},
-  } as unknown as InferenceClient;
+  const client = fakeClient({ openModel: vi.fn(async () => model), encodeImage, encodeSentences });
   return { client, encodeImage, encodeSentences };
 }
 
