@@ -138,10 +138,36 @@ describe('generatePhantomStudy', () => {
         if (b.zone === 'cardiac') continue;
         const z = zoneRects[b.zone as LungZone];
         const cy = y + h / 2, cx = x + w / 2;
+        if (sentence.finding === 'edema') {
+          // Perihilar oedema is boxed over its whole opacity in the lung (next test): the box
+          // reaches into its named middle third and its centre lies in that lung.
+          expect(y < z.y + z.h && y + h > z.y && cx >= z.x && cx <= z.x + z.w).toBe(true);
+          continue;
+        }
         expect(cy >= z.y - 0.5 && cy <= z.y + z.h + 0.5 && cx >= z.x && cx <= z.x + z.w).toBe(true);
       }
     }
     expect(n).toBeGreaterThan(100);
+  }, 30_000);
+
+  it('a perihilar oedema box covers the whole opacity in its lung, across the thirds, and is labelled with the middle zone', () => {
+    let n = 0, spanning = 0;
+    for (const s of studies) {
+      for (const b of s.boxes) {
+        const sentence = s.sentences[b.sentence.index];
+        const target = sentence.targets.find((t) => t.finding !== 'heart' && s.masks.findings[t.finding].finding === 'edema');
+        if (!target || target.finding === 'heart') continue;
+        n++;
+        expect(b.zone.endsWith('middle')).toBe(true);
+        const side = b.zone.startsWith('right') ? s.lungs.right : s.lungs.left;
+        expect(b.box).toEqual(maskBounds(s.masks.findings[target.finding].mask, SIZE, side));
+        const thirds = side.h / 3;
+        if (b.box.y < side.y + thirds - 0.5 || b.box.y + b.box.h > side.y + 2 * thirds + 0.5) spanning++;
+      }
+    }
+    expect(n).toBeGreaterThan(10);
+    // The opacity is not confined to the middle third, so a middle-third box would cut it.
+    expect(spanning).toBeGreaterThan(n / 2);
   }, 30_000);
 
   it('every positive sentence that names a finding and a place has a box per named zone; negated ones have none', () => {

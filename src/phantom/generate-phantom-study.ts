@@ -106,7 +106,7 @@ export function generatePhantomStudy(rng: Rng, { size = 512, id = 'phantom', cre
   sentences.forEach((s, index) => {
     if (s.negated) return;
     for (const t of s.targets) {
-      const box = t.finding === 'heart' ? maskBounds(heart, n) : maskBounds(findingMasks[t.finding].mask, n, zoneRects[t.zone as LungZone]);
+      const box = t.finding === 'heart' ? maskBounds(heart, n) : maskBounds(findingMasks[t.finding].mask, n, targetClip(findingMasks[t.finding].finding, t.zone as LungZone, lungs, zoneRects));
       if (!box) continue;
       boxes.push({
         id: `${id}-s${index}-${boxes.length}`,
@@ -162,6 +162,17 @@ function expose(rng: Rng, density: Float32Array, n: number): Float32Array {
     blurred[i] = v < 0 ? 0 : v > 1 ? 1 : v;
   }
   return blurred;
+}
+
+/**
+ * The part of a finding's mask a reference box covers. Most findings are boxed zone by zone, as
+ * their sentences name zones. Perihilar oedema is named by its place about the hilum, not by a
+ * third of the lung: its opacity spreads from the middle zone into the upper and lower ones, so
+ * its box covers the whole opacity in the named side's lung (labelled with the hilum's zone).
+ */
+function targetClip(kind: FindingKind, zone: LungZone, lungs: LungTemplate, zoneRects: Record<LungZone, ImageRect>): ImageRect {
+  if (kind !== 'edema') return zoneRects[zone];
+  return zone.startsWith('right') ? lungs.right : lungs.left;
 }
 
 /**

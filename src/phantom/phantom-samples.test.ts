@@ -24,5 +24,12 @@ describe('samples/phantom', () => {
     }
     const fresh = JSON.parse(files.get('set.json') as string) as SampleSetManifest;
     expect(fresh.studies).toEqual(manifest.studies.slice(0, 5));
+    // The committed reference boxes are the generator's too (a change to how boxes are derived
+    // from the masks must regenerate the set).
+    const ids = new Set(fresh.studies.map((s) => s.id));
+    const boxesOf = (text: string): unknown[] => (JSON.parse(text) as { boxes: { study: string }[] }).boxes.filter((b) => ids.has(b.study));
+    const committedBoxes = boxesOf(await readFile(join(DIR, 'annotations.json'), 'utf8'));
+    expect(committedBoxes.length).toBeGreaterThan(5);
+    expect(boxesOf(files.get('annotations.json') as string), 'annotations.json differs: regenerate samples/phantom').toEqual(committedBoxes);
   }, 60_000);
 });
