@@ -2,12 +2,13 @@
  * `npm run bench`: speed and memory figures, printed as one JSON object on stdout.
  * - scoring stage: Tessera's core over 1,000 studies x 10 sentences x 196 cells x D=128, and the same
  *   computation in numpy (Debian python3-numpy) in the same run; ratio = ours / numpy (studies/s).
- * - image encoder throughput: onnxruntime-web (WASM, 2 threads) over onnxruntime-node (2 threads).
+ * - image encoder throughput: onnxruntime-web (WASM, 2 threads) over onnxruntime-node (2 threads);
+ *   and demo-local-int8 over demo-local in each runtime (whole encode path and graph alone).
  * - memory held per 1,000 scored studies.
  * Absolute times on a shared machine are noise; read the ratios.
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { createRng } from '../../src/core/seeded-random';
@@ -26,6 +27,8 @@ import { openModelFolder } from '../../src/model/model-folder';
 import { createOrtNodeEngine } from '../../src/model/adapters/ort-node';
 import { createOrtWebEngine } from '../../src/model/adapters/ort-web';
 import { createTokenizerFromJson } from '../../src/model/adapters/hf-tokenizer';
+import { preprocessImage } from '../../src/model/preprocess';
+import type { InferenceEngine } from '../../src/model/types';
 import type { DecodedImage } from '../../src/dataset/types';
 
 const STUDIES = 1000;
@@ -34,6 +37,8 @@ const GRID = { h: 14, w: 14 };
 const CELLS = GRID.h * GRID.w;
 const DIM = 128;
 const SIZE = 224;
+/** demo-local's int8 image-encoder variant (models/recipe/quantize.py), timed against demo-local when present. */
+const INT8_DIR = 'models/demo-local-int8';
 
 function makeData(): { cells: Float32Array; sents: Float32Array; boxes: ImageRect[] } {
   const rng = createRng(2024);
@@ -143,20 +148,50 @@ function syntheticImage(seed: number, size = 512): DecodedImage {
 async function benchEncoders(): Promise<Record<string, unknown>> {
   const dir = ['models/demo-local', 'tests/fixtures/tiny-model'].find((d) => existsSync(join(d, 'tessera-model.json')));
   if (!dir) return { error: 'no model folder found' };
+  const int8Dir = existsSync(join(INT8_DIR, 'tessera-model.json')) ? INT8_DIR : undefined;
   const images = Array.from({ length: 8 }, (_, i) => syntheticImage(i));
-  const timeEngine = async (engine: Awaited<ReturnType<typeof createOrtNodeEngine>>): Promise<number> => {
-    const dual = await openModelFolder(createNodeFileSource(resolve(dir)), engine, { threads: 2, tokenizerFactory: createTokenizerFromJson });
-    for (const im of images.slice(0, 2)) await dual.encodeImage(im); // warm-up
-    const t0 = performance.now();
-    const rounds = 3;
-    for (let r = 0; r < rounds; r++) for (const im of images) await dual.encodeImage(im);
-    const secs = (performance.now() - t0) / 1000;
-    await dual.release();
-    return (rounds * images.length) / secs;
+  // Float and int8 take turns round by round on one engine, so drift on a shared machine hits both alike.
+  const timeEngine = async (engine: InferenceEngine): Promise<{ encode: number[]; graph: number[] }> => {
+    const folders = int8Dir ? [dir, int8Dir] : [dir];
+    const duals = await Promise.all(folders.map((d) => openModelFolder(createNodeFileSource(resolve(d)), engine, { threads: 2, tokenizerFactory: createTokenizerFromJson })));
+    const manifest = duals[0].manifest;
+    const feed = { [manifest.image.input.name]: preprocessImage(images[0], manifest.image.input).tensor };
+    const sessions = await Promise.all(folders.map((d) => engine.createSession(new Uint8Array(readFileSync(join(d, manifest.image.file))), { threads: 2 })));
+    for (const dual of duals) for (const im of images.slice(0, 2)) await dual.encodeImage(im); // warm-up
+    for (const session of sessions) for (let i = 0; i < 2; i++) await session.run(feed);
+    const rounds = 6;
+    const encodeSecs = folders.map(() => 0);
+    const graphSecs = folders.map(() => 0);
+    for (let r = 0; r < rounds; r++) {
+      for (let m = 0; m < folders.length; m++) {
+        let t0 = performance.now();
+        for (const im of images) await duals[m].encodeImage(im);
+        encodeSecs[m] += (performance.now() - t0) / 1000;
+        t0 = performance.now();
+        for (let i = 0; i < images.length; i++) await sessions[m].run(feed);
+        graphSecs[m] += (performance.now() - t0) / 1000;
+      }
+    }
+    await Promise.all([...duals.map((d) => d.release()), ...sessions.map((s) => s.release())]);
+    const rate = (secs: number): number => (rounds * images.length) / secs;
+    return { encode: encodeSecs.map(rate), graph: graphSecs.map(rate) };
   };
-  const nodeRate = await timeEngine(await createOrtNodeEngine({ threads: 2 }));
-  const webRate = await timeEngine(await createOrtWebEngine({ threads: 2, wasmPaths: `${resolve('node_modules/onnxruntime-web/dist')}/` }));
-  return { model: dir, images_per_s_ort_node: nodeRate, images_per_s_ort_web: webRate, ratio_web_over_node: webRate / nodeRate };
+  const node = await timeEngine(await createOrtNodeEngine({ threads: 2 }));
+  const web = await timeEngine(await createOrtWebEngine({ threads: 2, wasmPaths: `${resolve('node_modules/onnxruntime-web/dist')}/` }));
+  const result: Record<string, unknown> = {
+    model: dir, images_per_s_ort_node: node.encode[0], images_per_s_ort_web: web.encode[0], ratio_web_over_node: web.encode[0] / node.encode[0],
+  };
+  if (int8Dir) {
+    result.int8 = {
+      model: int8Dir,
+      note: 'encode = encodeImage on a 512 x 512 image (preprocessing, the graph, the copy to cells); graph = the image encoder session alone on a preprocessed [1, 1, 224, 224] input. ratio = int8 images/s over float images/s, float and int8 timed in alternating rounds in this run.',
+      images_per_s_ort_node: { float_encode: node.encode[0], int8_encode: node.encode[1], float_graph: node.graph[0], int8_graph: node.graph[1] },
+      images_per_s_ort_web: { float_encode: web.encode[0], int8_encode: web.encode[1], float_graph: web.graph[0], int8_graph: web.graph[1] },
+      ratio_int8_over_float_ort_node: { encode: node.encode[1] / node.encode[0], graph: node.graph[1] / node.graph[0] },
+      ratio_int8_over_float_ort_web: { encode: web.encode[1] / web.encode[0], graph: web.graph[1] / web.graph[0] },
+    };
+  }
+  return result;
 }
 
 function benchMemory(data: ReturnType<typeof makeData>): Record<string, unknown> {
