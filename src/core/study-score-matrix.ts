@@ -1,5 +1,6 @@
 import type { Aggregator, Matrix } from './types';
 import { poolRegions } from './pool-regions';
+import { computeSimilarityWithNormalisedCells } from './similarity-matrix';
 
 /** One study's embeddings, each row already L2-normalised. */
 export interface StudyEmbeddings {
@@ -31,23 +32,25 @@ export function localStudyScoreMatrix(
 ): Matrix {
   const n = studies.length;
   const out = new Float32Array(n * n);
-  let rowBuffer = new Float32Array(0);
+  // Every report's sentences stacked once, so each image needs one blocked similarity pass
+  // (the kernel of computeSimilarity) instead of a dot product per sentence and cell.
+  const first = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) first[j + 1] = first[j] + studies[j].nSentences;
+  const total = first[n];
+  const stacked = new Float32Array(total * dim);
+  for (let j = 0; j < n; j++) stacked.set(studies[j].sentences.subarray(0, studies[j].nSentences * dim), first[j] * dim);
   for (let i = 0; i < n; i++) {
     const img = studies[i];
-    if (rowBuffer.length < img.nCells) rowBuffer = new Float32Array(img.nCells);
-    const row = rowBuffer.subarray(0, img.nCells);
+    const sim = computeSimilarityWithNormalisedCells(stacked, total, img.cells.subarray(0, img.nCells * dim), img.nCells, dim).data;
     for (let j = 0; j < n; j++) {
-      const rep = studies[j];
-      if (rep.nSentences === 0) {
+      const count = first[j + 1] - first[j];
+      if (count === 0) {
         out[i * n + j] = Number.NaN;
         continue;
       }
       let sum = 0;
-      for (let s = 0; s < rep.nSentences; s++) {
-        for (let c = 0; c < img.nCells; c++) row[c] = dotRows(rep.sentences, s, img.cells, c, dim);
-        sum += poolRegions(row, aggregator);
-      }
-      out[i * n + j] = sum / rep.nSentences;
+      for (let s = first[j]; s < first[j + 1]; s++) sum += poolRegions(sim.subarray(s * img.nCells, (s + 1) * img.nCells), aggregator);
+      out[i * n + j] = sum / count;
     }
   }
   return { data: out, rows: n, cols: n };

@@ -130,6 +130,8 @@ export async function runScore(argv: string[], io: CommandIo): Promise<number> {
       await writeFile(join(out, 'shard-embeddings.bin'), embeddings);
       io.stderr(`wrote shard ${shard.index}/${shard.count} to ${out}; join every shard with 'merge DIR... --out DIR'`);
     } else {
+      const pool = run.runs[0]?.pool.length ?? 0;
+      io.stderr(`summarising: intervals, paired comparisons and retrieval over ${pool} studies for ${encoders.length} model(s)`);
       await writeRunOutputs(result, out, io);
     }
     const anyScored = run.scored.length > 0;
