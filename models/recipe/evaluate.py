@@ -7,6 +7,14 @@
   backprop"): for each localisable positive sentence (one with a reference box, not negated), the
   cell with the highest cosine similarity is a hit when its centre, mapped back to original image
   pixels, lies in one of the sentence's boxes. Chance: the share of cell centres inside the boxes.
+  The test is closed (a centre on any edge of a box counts), as in the tool's pointInRect
+  (src/core/box-geometry.ts): cell centres (8 c + 4 at stride 8) and box edges are both whole pixels,
+  so a centre on a box's edge is common, and a half-open test would count it on the left and top
+  edges but not on the right and bottom ones.
+- Sentences are tied to their boxes by sentence index, as the tool does; a report that repeats a
+  sentence word for word (findings and impression) gives two sentences. A sentence is negated as the
+  set labels it (labels.sentences[].negated, which the phantom writes); without a label the
+  trigger-word test of sample_set.is_negated decides.
 - Sentence-to-image recall@1: each such sentence ranks every image of the set by the model's own
   region pooling (softmax or max over cells; mean-pooled regions for the global model). Strict: the
   top image is the sentence's own. Text-aware: the top image's report holds the same sentence text
@@ -39,6 +47,33 @@ def parse_args(argv):
     p.add_argument('--untrained', action='store_true')
     p.add_argument('--seed', type=int, default=11)
     return p.parse_args(argv)
+
+
+def centre_in_boxes(pt, boxes):
+    """Whether the point (x, y) lies in one of the boxes ({x, y, w, h}), edges included."""
+    return any(b['x'] <= pt[0] <= b['x'] + b['w'] and b['y'] <= pt[1] <= b['y'] + b['h'] for b in boxes)
+
+
+def localisable_sentences(studies, boxes):
+    """The localisable positive sentences: [(study position, sentence index, text, boxes, finding)].
+
+    One item per sentence index with at least one box and not negated; the finding comes from
+    labels.sentences (the phantom's), else 'unlabelled'.
+    """
+    items = []
+    for i, s in enumerate(studies):
+        labels = {l.get('index'): l for l in (s.get('labels') or {}).get('sentences', []) if isinstance(l, dict)}
+        by_index = {}
+        for b in boxes.get(s['id'], []):
+            entry = by_index.setdefault(b['sentence']['index'], (b['sentence']['text'], []))
+            entry[1].append(b['box'])
+        for index in sorted(by_index):
+            text, bs = by_index[index]
+            label = labels.get(index, {})
+            negated = label['negated'] if isinstance(label.get('negated'), bool) else is_negated(text)
+            if not negated:
+                items.append((i, index, text, bs, label.get('finding') or 'unlabelled'))
+    return items
 
 
 def pooled(sim, pooling, temperature):
@@ -94,25 +129,13 @@ def main(argv=None):
             rows.append(pooled(sim, config['pooling'], config['pool_temperature']))
         return torch.cat(rows)
 
-    # Localisable positive sentences: tied to reference boxes by their text, and not negated.
-    # The phantom labels each sentence with its finding (labels.sentences), used only to break the
-    # figures down; a set without them counts every sentence under 'unlabelled'.
-    items, findings = [], []
-    for i, s in enumerate(studies):
-        labelled = {l.get('index'): l.get('finding') for l in (s.get('labels') or {}).get('sentences', [])
-                    if isinstance(l, dict)}
-        by_text, finding_of = {}, {}
-        for b in boxes.get(s['id'], []):
-            by_text.setdefault(b['sentence']['text'], []).append(b['box'])
-            finding_of[b['sentence']['text']] = labelled.get(b['sentence']['index']) or 'unlabelled'
-        for text, bs in by_text.items():
-            if not is_negated(text):
-                items.append((i, text, bs))
-                findings.append(finding_of[text])
-    texts = [t for _, t, _ in items]
+    # The finding labels (labels.sentences) only break the figures down.
+    items = localisable_sentences(studies, boxes)
+    findings = [f for *_, f in items]
+    texts = [t for _, _, t, _, _ in items]
     emb = embed(texts)
     hits, chances, gaps, other_side, offsets = [], [], [], [], []
-    for k, (i, _, bs) in enumerate(items):
+    for k, (i, _, _, bs, _) in enumerate(items):
         sim = regions[i] @ emb[k]
         best = int(sim.argmax())
         oh, ow = originals[i]
@@ -120,11 +143,8 @@ def main(argv=None):
         centres = [((c % gw + 0.5) * config['stride_px'] * sx, (c // gw + 0.5) * config['stride_px'] * sy)
                    for c in range(gh * gw)]
 
-        def inside(pt):
-            return any(b['x'] <= pt[0] < b['x'] + b['w'] and b['y'] <= pt[1] < b['y'] + b['h'] for b in bs)
-
-        hits.append(inside(centres[best]))
-        chances.append(sum(inside(c) for c in centres) / len(centres))
+        hits.append(centre_in_boxes(centres[best], bs))
+        chances.append(sum(centre_in_boxes(c, bs) for c in centres) / len(centres))
         # How far a miss lands: the best cell centre's distance to the nearest box, in image pixels,
         # and whether it is on the other half of the image from every box (a side error).
         px, py = centres[best]
@@ -146,7 +166,7 @@ def main(argv=None):
                          'mean_offset_input_px': [round(float(np.mean([offsets[k][j] for k in ks])), 2) for j in (0, 1)]}
 
     scores = score_all(emb)
-    own = torch.tensor([i for i, _, _ in items])
+    own = torch.tensor([i for i, *_ in items])
     top = scores.argmax(1)
     strict = (top == own).float().mean().item() if items else None
     norm_sentences = [set(normalize(t) for t in split_sentences(s['report'])) for s in studies]
