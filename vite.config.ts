@@ -22,7 +22,7 @@ const ORT_FILES = ['ort-wasm-simd-threaded.wasm', 'ort-wasm-simd-threaded.mjs'];
  */
 function demoFolders(): { models: Record<string, string>; sets: Record<string, string> } {
   const models: Record<string, string> = {};
-  for (const name of ['demo-local', 'demo-global', 'demo-widefield']) {
+  for (const name of ['demo-local', 'demo-global', 'demo-widefield', 'demo-local-int8']) {
     const dir = join(ROOT, 'models', name);
     if (existsSync(join(dir, 'tessera-model.json'))) models[name] = dir;
   }

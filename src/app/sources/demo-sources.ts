@@ -2,7 +2,7 @@ import type { FileSource } from '../../dataset/types';
 import { createHttpFileSource } from './http-file-source';
 
 /** Models the build may bundle, in the order the page prefers them. */
-export const DEMO_MODEL_PREFERENCE = ['demo-local', 'demo-global', 'demo-widefield', 'tiny-model'] as const;
+export const DEMO_MODEL_PREFERENCE = ['demo-local', 'demo-global', 'demo-widefield', 'demo-local-int8', 'tiny-model'] as const;
 
 /** demo/catalogue.json, written by the build (and served by the dev server): what is bundled. */
 export interface DemoCatalogue {
