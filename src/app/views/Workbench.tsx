@@ -107,7 +107,7 @@ export function Workbench({ services }: WorkbenchProps) {
 
   return (
     <div className={`t-app${drop.over ? ' t-app--drop' : ''}`} {...drop.handlers}>
-      <CautionBanner />
+      <CautionBanner synthetic={session.set?.manifest.synthetic} />
       <header className="t-header">
         <h1>Tessera</h1>
         <span className="t-sub">region–sentence alignment explorer</span>
