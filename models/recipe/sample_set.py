@@ -212,6 +212,18 @@ _NEGATION = re.compile(
 )
 
 
+def sentence_negation(study, sentences):
+    """Negated flag of each of a study's sentences (split_sentences order): the set's own label
+    (labels.sentences[].negated, by sentence index, which the phantom writes) where there is one,
+    else the trigger-word test is_negated."""
+    labels = {l.get('index'): l for l in (study.get('labels') or {}).get('sentences', []) if isinstance(l, dict)}
+    flags = []
+    for i, text in enumerate(sentences):
+        label = labels.get(i, {}).get('negated')
+        flags.append(label if isinstance(label, bool) else is_negated(text))
+    return flags
+
+
 def is_negated(sentence):
     """A simple trigger-word negation test (training only; the tool's own NegEx-style rules live in src/report)."""
     return _NEGATION.search(sentence) is not None

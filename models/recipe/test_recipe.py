@@ -197,6 +197,16 @@ class SampleSetTest(unittest.TestCase):
         self.assertFalse(sample_set.is_negated('The trachea is central.'))
 
 
+    def test_sentence_negation_prefers_the_sets_labels_by_index(self):
+        sents = ['A pleural line is seen at the right apex with no lung markings above it, in keeping with pneumothorax.',
+                 'No effusion.', 'The trachea is central.']
+        study = {'labels': {'sentences': [{'index': 0, 'negated': False}, {'index': 1, 'negated': True}]}}
+        # The trigger words call the first sentence negated; the label says it is not.
+        self.assertTrue(sample_set.is_negated(sents[0]))
+        self.assertEqual(sample_set.sentence_negation(study, sents), [False, True, False])
+        # Without labels (a researcher's own set) the trigger words decide.
+        self.assertEqual(sample_set.sentence_negation({}, sents), [True, True, False])
+
 class LossTest(unittest.TestCase):
     def test_pool_regions_softmax_lies_between_mean_and_max(self):
         sim = torch.randn(3, 2, 10)

@@ -30,7 +30,7 @@ import torch.nn.functional as F
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 from nets import DualEncoder  # noqa: E402
-from sample_set import SampleSetError, is_negated, load_image, read_sample_set, split_sentences  # noqa: E402
+from sample_set import SampleSetError, is_negated, load_image, read_sample_set, sentence_negation, split_sentences  # noqa: E402
 from wordpiece import build_vocab  # noqa: E402
 
 CONTRAST_TEMPERATURE = 0.07
@@ -64,6 +64,10 @@ def parse_args(argv):
                         '(0: no budget); the schedule then follows the new count')
     p.add_argument('--time-limit-min', type=float, default=28.0,
                    help='hard stop (and say so) when the whole run would pass this many minutes')
+    p.add_argument('--negation', choices=['words', 'labels'], default='words',
+                   help="which sentences leave the losses as negated: 'words', the trigger-word test "
+                        "(sample_set.is_negated; the committed models), or 'labels', the set's own sentence labels "
+                        "where given (the phantom's), else the trigger words")
     p.add_argument('--limit', type=int, default=0, help='use only the first N studies (debugging)')
     return p.parse_args(argv)
 
@@ -83,8 +87,9 @@ def prepare(args):
         arr, _ = load_image(os.path.join(folder, s['image']), args.size)
         images[i] = np.clip(np.rint(arr * 255.0), 0, 255).astype(np.uint8)
     positive = []
-    for sents in sentences:
-        keep = [t for t in sents if not is_negated(t)]
+    for (_, s), sents in zip(studies, sentences):
+        negated = sentence_negation(s, sents) if args.negation == 'labels' else [is_negated(t) for t in sents]
+        keep = [t for t, n in zip(sents, negated) if not n]
         positive.append([tokenizer.encode(t, args.max_tokens) for t in keep])
     return names, studies, tokenizer, images, positive
 
@@ -243,7 +248,7 @@ def main(argv=None):
         'seed': args.seed, 'sentence_nce': args.sentence_nce, 'minutes': round((time.time() - started) / 60.0, 1),
         'stopped_early': stopped_early, 'cut_to_time_budget': budget_cut, 'planned_epochs': args.epochs,
         'torch': torch.__version__, 'threads': args.threads, 'log': log,
-        'negated_sentences': 'excluded from the loss',
+        'negated_sentences': 'excluded from the loss', 'negation': args.negation,
     }
     torch.save({'config': config, 'state_dict': model.state_dict(), 'tokenizer': tokenizer.to_json(),
                 'training': training}, args.out)
